@@ -1,0 +1,154 @@
+// The vocabulary of the planning engine (see ../shared/DESIGN.md, "Quantities").
+// Pure data: no editor, LSP, YAML or file-system types ever appear here.
+
+import type { Rational } from '../../../shared-schema/src/rational';
+
+/** The hardware of a clock file, resolved to exact values. */
+export interface Hardware {
+  /** f_sys */
+  systemClockHz: Rational;
+  divider: {
+    /** Range of the integer part I of D = I + F/2^k. */
+    integerMin: number;
+    integerMax: number;
+    /** k; 0 = integer-only divider. */
+    fractionBits: number;
+  };
+  dac: {
+    bits: number;
+    /** Bytes one sample takes in RAM (the DMA transfer width). */
+    sampleBytes: number;
+    /** Full-scale output voltage; one LSB = fullScaleV / 2^bits. */
+    fullScaleV: number;
+    /** Highest sample rate f_s the converter/DMA sustains. */
+    maxSampleRateHz: Rational;
+  };
+  memory: {
+    /** RAM set aside for all tables together. */
+    budgetBytes: number;
+    tableLengthMin: number;
+    tableLengthMax: number;
+    /** Tables must be a power of two long (DMA ring buffers). */
+    powerOfTwo: boolean;
+  };
+}
+
+export type Shape = 'sine' | 'square' | 'triangle' | 'sawtooth';
+
+/** What one output asks of the planner. */
+export interface PlanRequest {
+  /** f_target */
+  targetHz: Rational;
+  /** S floor: every plan keeps N/M ≥ this (a sine must stay above 2). */
+  minSamplesPerCycle: Rational;
+}
+
+/**
+ * One plan: D = dividerInteger + dividerFraction / 2^fractionBits, f_s = f_sys / D,
+ * f_out = f_s · cycles / tableLength. achievedHz is exact.
+ */
+export interface Plan {
+  dividerInteger: number;
+  /** F, the fraction's numerator. 0 = jitter-free. */
+  dividerFraction: number;
+  fractionBits: number;
+  tableLength: number;
+  /** M, whole cycles in the table (a pinned plan may hold a non-integer value to be flagged). */
+  cycles: Rational;
+  achievedHz: Rational;
+  /** achievedHz − targetHz, signed. */
+  errorHz: Rational;
+}
+
+/** Divider jitter of a first-order accumulator fractional divider. All zero for F = 0. */
+export interface Jitter {
+  /** Long-period share p = F / 2^k. */
+  longShare: number;
+  samplePeriodJitterPkPkS: number;
+  samplePeriodJitterRmsS: number;
+  /** Time-interval error against the ideal grid aligned to the mean. */
+  tiePkPkS: number;
+  tieRmsS: number;
+  /** Sample periods before the period pattern repeats: 2^k / gcd(F, 2^k). 1 when jitter-free. */
+  patternLength: number;
+  /** −20·log10(2π·f_out·TIE_rms); null when jitter-free (unbounded). */
+  jitterSnrDb: number | null;
+  /** Spur offsets around each spectral line: multiples of f_s · gcd(F, 2^k) / 2^k (first few). */
+  spurOffsetsHz: number[];
+}
+
+/** The wrap from the last table sample to the first. */
+export interface Seam {
+  ok: boolean;
+  /** |actual wrap step − the waveform's own step at that phase|, in LSB. */
+  jumpLsb: number;
+  /** Why the seam is broken, when it is. */
+  cause: 'fractional-cycles' | 'repeated-sample' | 'quantisation' | null;
+}
+
+/** Everything reported about one plan: the plan plus its derived figures. */
+export interface PlanFigures extends Plan {
+  systemClockHz: Rational;
+  sampleRateHz: Rational;
+  errorPpm: number;
+  jitterFree: boolean;
+  jitter: Jitter;
+  seam: Seam;
+  tableBytes: number;
+}
+
+/** The signal an output's table holds. Voltages in volts. */
+export interface Waveform {
+  shape: Shape;
+  /** Share of the cycle a square wave spends high, 0 < duty < 1; ignored by other shapes. */
+  duty: number;
+  amplitudeVpp: number;
+  offsetV: number;
+}
+
+/**
+ * How the table's samples are spaced over its cycles: `open` spans N intervals (sample i at
+ * phase M·i/N — the wrap is seamless); `closed` spans N − 1 intervals (the last sample repeats
+ * the first — the classic off-by-one of tables made with an inclusive end point).
+ */
+export type TableSpan = 'open' | 'closed';
+
+/** A plan written into the spec by hand: checked, not searched. */
+export interface PinnedPlan {
+  dividerInteger: number;
+  dividerFraction: number;
+  tableLength: number;
+  cycles: Rational;
+  span: TableSpan;
+}
+
+/** Everything the engine needs to plan one output. */
+export interface OutputRequest extends PlanRequest {
+  waveform: Waveform;
+  /** Allowed |achieved − target| in Hz (ppm, % and Hz are resolved before planning). */
+  toleranceHz: Rational;
+  /** forbid = integer divider only. */
+  jitter: 'forbid' | 'allow';
+  pinned?: PinnedPlan;
+}
+
+/**
+ * The engine's verdict on one output.
+ * - exact / within-tolerance: a jitter-free plan meets the tolerance.
+ * - fractional: none does, jitter is allowed and a fractional plan does (warn with its jitter).
+ * - out-of-tolerance: nothing allowed meets the tolerance; `plan` is the best available.
+ * - pinned: the plan was written in the spec; `plan` is it, checked.
+ * - no-plan: the hardware admits no plan at all (e.g. every table is over budget).
+ */
+export type Verdict = 'exact' | 'within-tolerance' | 'fractional' | 'out-of-tolerance' | 'pinned' | 'no-plan';
+
+export interface OutputPlanning {
+  verdict: Verdict;
+  plan: PlanFigures | null;
+  /** The nearest jitter-free plan (always searched; the alternative an error names). */
+  nearestJitterFree: PlanFigures | null;
+  /** The best fractional plan, when the hardware has fraction bits. */
+  bestFractional: PlanFigures | null;
+  /** |errorHz| of `plan` ≤ toleranceHz. */
+  withinTolerance: boolean;
+}

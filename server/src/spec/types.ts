@@ -1,0 +1,66 @@
+// The result of analysing one spec file: what every face (LSP features, checker, exporters)
+// reads. Plain data; positions are 0-based line/character (UTF-16), as in LSP.
+
+import type { Rational } from '../../../shared-schema/src/rational';
+import type { Hardware, OutputPlanning, OutputRequest } from '../planning/types';
+
+export interface Position {
+  line: number;
+  character: number;
+}
+export interface Range {
+  start: Position;
+  end: Position;
+}
+
+export type Severity = 'error' | 'warning' | 'information';
+
+export interface SpecDiagnostic {
+  range: Range;
+  severity: Severity;
+  /** Stable code, e.g. "unknown-key"; quick fixes and the checker key on it. */
+  code: string;
+  /** One sentence that says what is wrong and what to do. */
+  message: string;
+  /** The output the diagnostic is about, when it is about one. */
+  output?: string;
+}
+
+export type SpecKind = 'wave' | 'clock';
+
+/** One output of a wave spec with everything planned for it. */
+export interface OutputAnalysis {
+  name: string;
+  /** The output's key in `outputs:`. */
+  nameRange: Range;
+  /** The whole entry (key and value). */
+  entryRange: Range;
+  /** Ranges of the entry's own keys' values, by key name (e.g. "frequency", "plan"). */
+  valueRanges: Record<string, Range>;
+  targetHz: Rational;
+  request: OutputRequest;
+  planning: OutputPlanning;
+}
+
+export interface Analysis {
+  /** Absolute file-system path of the analysed file. */
+  path: string;
+  kind: SpecKind;
+  /** The text analysed (the unsaved buffer when an editor supplied one). */
+  text: string;
+  diagnostics: SpecDiagnostic[];
+  /** Wave specs only; in file order. */
+  outputs: OutputAnalysis[];
+  /** The hardware: of the clock file itself, or of the clock file a wave spec references. */
+  hardware: Hardware | null;
+  /** Wave specs: the absolute path `clock:` resolves to, if any. */
+  clockPath: string | null;
+  /** Total table bytes of all planned outputs against hardware.memory.budgetBytes. */
+  memory: { usedBytes: number; budgetBytes: number } | null;
+}
+
+/** How the analysis reads files: an editor prefers its unsaved buffers over the disk. */
+export interface SpecHost {
+  /** Text of the file, or undefined when it cannot be read. */
+  readFile(path: string): string | undefined;
+}

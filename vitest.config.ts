@@ -1,0 +1,9 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['test/unit/**/*.test.ts', 'test/protocol/**/*.test.ts', 'test/cli/**/*.test.ts', 'test/export/**/*.test.ts'],
+    testTimeout: 60_000,
+    hookTimeout: 120_000,
+  },
+});
