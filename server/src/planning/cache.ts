@@ -1,0 +1,55 @@
+// A bounded memo of planned outputs, so an edit to one output re-plans only that one: every
+// other output's hardware and request values are unchanged, so their keys hit.
+
+import type { Rational } from '../../../shared-schema/src/rational';
+import type { Hardware, OutputPlanning, OutputRequest } from './types';
+
+const q = (r: Rational): string => `${r.num}/${r.den}`;
+
+/** Every value planning reads, in one string. */
+export function planningKey(hw: Hardware, req: OutputRequest): string {
+  const { divider: dv, dac, memory: mem } = hw;
+  const w = req.waveform;
+  const p = req.pinned;
+  return [
+    q(hw.systemClockHz),
+    dv.integerMin, dv.integerMax, dv.fractionBits,
+    dac.bits, dac.sampleBytes, dac.fullScaleV, q(dac.maxSampleRateHz),
+    mem.budgetBytes, mem.tableLengthMin, mem.tableLengthMax, mem.powerOfTwo,
+    q(req.targetHz), q(req.minSamplesPerCycle), q(req.toleranceHz), req.jitter,
+    w.shape, w.duty, w.amplitudeVpp, w.offsetV,
+    p ? [p.dividerInteger, p.dividerFraction, p.tableLength, q(p.cycles), p.span].join(',') : '-',
+  ].join('|');
+}
+
+/** Least-recently-used memo: a Map keeps insertion order, so the first key is the oldest. */
+export class PlanningCache {
+  private readonly entries = new Map<string, OutputPlanning>();
+  hits = 0;
+  misses = 0;
+
+  constructor(readonly capacity = 2000) {}
+
+  get size(): number {
+    return this.entries.size;
+  }
+
+  getOrCompute(key: string, compute: () => OutputPlanning): OutputPlanning {
+    const found = this.entries.get(key);
+    if (found !== undefined) {
+      this.hits++;
+      this.entries.delete(key);
+      this.entries.set(key, found);
+      return found;
+    }
+    this.misses++;
+    const value = compute();
+    this.entries.set(key, value);
+    if (this.entries.size > this.capacity) this.entries.delete(this.entries.keys().next().value!);
+    return value;
+  }
+
+  clear(): void {
+    this.entries.clear();
+  }
+}

@@ -1,0 +1,117 @@
+// The search domain of one output, reduced to one integer problem for both divider kinds.
+// With J = I·2^k + F the fractional divider is an integer divider J on a clock f_sys·2^k, so
+// f_out = C·M/(J·N) with C = f_sys·2^k (k = 0 for the jitter-free problem). Everything the hot
+// loop needs is precomputed here, both exact (bigint) and as doubles.
+
+import { type Rational, rat, mul, div, ceil, toNumber, sign } from '../../../shared-schema/src/rational';
+import type { Hardware, PlanRequest } from './types';
+
+export type Mode = 'jitter-free' | 'fractional';
+
+export interface Domain {
+  mode: Mode;
+  /** k of the hardware; F = J mod 2^k in fractional mode. */
+  fractionBits: number;
+  /** 2^k in fractional mode, 1 in jitter-free mode (the J step of one whole divider count). */
+  scale: number;
+  /** C = f_sys·2^k (fractional) or f_sys (jitter-free). */
+  clock: Rational;
+  target: Rational;
+  clockF: number;
+  targetF: number;
+  /** Inclusive range of J after the sample-rate limit. */
+  jMin: number;
+  jMax: number;
+  /** Allowed table lengths: the range [nMin, nMax], or only its powers of two. */
+  nMin: number;
+  nMax: number;
+  powerOfTwo: boolean;
+  /** Powers of two in [nMin, nMax] when powerOfTwo, ascending. */
+  lengths: number[];
+  /** S floor = sNum/sDen > 0: a plan keeps N·sDen ≥ M·sNum. */
+  sNum: bigint;
+  sDen: bigint;
+  sFloorF: number;
+  /** sNum and sDen as doubles when both are below 2^40 (else NaN: use the bigints). */
+  sNumF: number;
+  sDenF: number;
+  /** Exact error pieces: |errorHz| = |kM·M − kJN·J·N| / (den·J·N). */
+  kM: bigint;
+  kJN: bigint;
+}
+
+/** Largest M a table of n samples may hold: floor(n / S floor). */
+export function maxCycles(d: Domain, n: number): number {
+  // Doubles divide exactly enough while the dividend stays far below 2^53.
+  const top = n * d.sDenF;
+  if (top < 2 ** 40) return Math.floor(top / d.sNumF);
+  return Number((BigInt(n) * d.sDen) / d.sNum);
+}
+
+/** The jitter-free (F = 0) domain, or null when no plan can exist. */
+export function jitterFreeDomain(hw: Hardware, req: PlanRequest): Domain | null {
+  return makeDomain(hw, req, 'jitter-free');
+}
+
+/** The fractional domain (every F), or null when no plan can exist. */
+export function fractionalDomain(hw: Hardware, req: PlanRequest): Domain | null {
+  return makeDomain(hw, req, 'fractional');
+}
+
+function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode): Domain | null {
+  const k = mode === 'fractional' ? hw.divider.fractionBits : 0;
+  const scale = 2 ** k;
+  const clock = mul(hw.systemClockHz, rat(BigInt(scale)));
+  const target = req.targetHz;
+  if (sign(clock) <= 0 || sign(target) <= 0 || sign(req.minSamplesPerCycle) <= 0) return null;
+  if (sign(hw.dac.maxSampleRateHz) <= 0) return null;
+
+  // f_s = C/J ≤ max rate  ⇔  J ≥ C / max rate.
+  const jRate = ceil(div(clock, hw.dac.maxSampleRateHz));
+  const jMin = Math.max(hw.divider.integerMin * scale, Number(jRate), 1);
+  const jMax = hw.divider.integerMax * scale + scale - 1;
+  if (!(jMin <= jMax)) return null;
+
+  const sFloor = req.minSamplesPerCycle;
+  const byBudget = hw.dac.sampleBytes > 0 ? Math.floor(hw.memory.budgetBytes / hw.dac.sampleBytes) : 0;
+  // M ≥ 1 needs N ≥ S floor.
+  let nMin = Math.max(hw.memory.tableLengthMin, Number(ceil(sFloor)), 1);
+  let nMax = Math.min(hw.memory.tableLengthMax, byBudget);
+  const lengths: number[] = [];
+  if (hw.memory.powerOfTwo) {
+    for (let n = 1; n <= nMax; n *= 2) if (n >= nMin) lengths.push(n);
+    if (lengths.length === 0) return null;
+    nMin = lengths[0]!;
+    nMax = lengths[lengths.length - 1]!;
+  }
+  if (!(nMin <= nMax)) return null;
+
+  return {
+    mode,
+    fractionBits: hw.divider.fractionBits,
+    scale,
+    clock,
+    target,
+    clockF: toNumber(clock),
+    targetF: toNumber(target),
+    jMin,
+    jMax,
+    nMin,
+    nMax,
+    powerOfTwo: hw.memory.powerOfTwo,
+    lengths,
+    sNum: sFloor.num,
+    sDen: sFloor.den,
+    sFloorF: toNumber(sFloor),
+    sNumF: sFloor.num < 2n ** 40n && sFloor.den < 2n ** 40n ? Number(sFloor.num) : NaN,
+    sDenF: sFloor.num < 2n ** 40n && sFloor.den < 2n ** 40n ? Number(sFloor.den) : NaN,
+    kM: clock.num * target.den,
+    kJN: target.num * clock.den,
+  };
+}
+
+/** Exact f_out = C·M/(J·N). */
+export function achievedHz(d: Domain, j: number, n: number, m: number): Rational {
+  return div(mul(d.clock, rat(BigInt(m))), rat(BigInt(j) * BigInt(n)));
+}
+

@@ -1,0 +1,103 @@
+// The sample table of one output: the exact function the exporter, the seam check and the
+// pictures all use, so what the editor shows is what the firmware streams.
+
+import { type Rational } from '../../../shared-schema/src/rational';
+import type { Hardware, Shape, TableSpan, Waveform } from './types';
+
+/** The unit waveform in [−1, 1] at a phase in cycles, 0 ≤ phase < 1. */
+export function unitWave(shape: Shape, duty: number, phase: number): number {
+  switch (shape) {
+    case 'sine':
+      return Math.sin(2 * Math.PI * phase);
+    case 'square':
+      return phase < duty ? 1 : -1;
+    case 'triangle':
+      // −1 at phase 0, +1 at 0.5, back to −1 at 1.
+      return phase < 0.5 ? -1 + 4 * phase : 3 - 4 * phase;
+    case 'sawtooth':
+      return -1 + 2 * phase;
+  }
+}
+
+/** One LSB in volts: full scale / 2^bits. */
+export function lsbVolts(dac: Hardware['dac']): number {
+  return dac.fullScaleV / 2 ** dac.bits;
+}
+
+/** The code nearest to v before clamping (may lie outside the DAC's range). */
+export function rawCode(v: number, dac: Hardware['dac']): number {
+  return Math.round(v / lsbVolts(dac));
+}
+
+/** DAC code for a voltage: round(v / LSB) clamped to [0, 2^bits − 1]. */
+export function voltageToCode(v: number, dac: Hardware['dac']): number {
+  return Math.min(Math.max(rawCode(v, dac), 0), 2 ** dac.bits - 1);
+}
+
+/** Ideal voltage of a waveform at a phase in cycles. */
+export function waveVolts(waveform: Waveform, phase: number): number {
+  return waveform.offsetV + (waveform.amplitudeVpp / 2) * unitWave(waveform.shape, waveform.duty, phase);
+}
+
+/**
+ * Phase in cycles of sample i: frac(M·i/N) for an open span, frac(M·i/(N − 1)) for a closed one.
+ * i may be N (the sample that would follow the table on a continuous phase). Exact in integers.
+ */
+export function samplePhase(i: number, tableLength: number, cycles: Rational, span: TableSpan): number {
+  const intervals = span === 'open' ? tableLength : tableLength - 1;
+  if (intervals <= 0) return 0;
+  // M·i/intervals = num·i / (den·intervals); keep the remainder exact.
+  const num = Number(cycles.num);
+  const mod = Number(cycles.den) * intervals;
+  if (Math.abs(num * i) < 2 ** 53 && mod < 2 ** 53) {
+    const rem = (num * i) % mod;
+    return (rem < 0 ? rem + mod : rem) / mod;
+  }
+  const modulus = cycles.den * BigInt(intervals);
+  let r = (cycles.num * BigInt(i)) % modulus;
+  if (r < 0n) r += modulus;
+  return Number(r) / Number(modulus);
+}
+
+/** DAC code of sample i (i = N gives the sample a continuous phase would play next). */
+export function sampleCode(
+  waveform: Waveform,
+  dac: Hardware['dac'],
+  i: number,
+  tableLength: number,
+  cycles: Rational,
+  span: TableSpan,
+): number {
+  return voltageToCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span)), dac);
+}
+
+/** The table of DAC codes, clamped to the DAC's range (see clippedSamples). */
+export function buildTable(
+  waveform: Waveform,
+  dac: Hardware['dac'],
+  tableLength: number,
+  cycles: Rational,
+  span: TableSpan,
+): Int32Array {
+  const n = Math.max(0, Math.floor(tableLength));
+  const table = new Int32Array(n);
+  for (let i = 0; i < n; i++) table[i] = sampleCode(waveform, dac, i, n, cycles, span);
+  return table;
+}
+
+/** How many samples of the table the DAC range clips (their code was clamped). */
+export function clippedSamples(
+  waveform: Waveform,
+  dac: Hardware['dac'],
+  tableLength: number,
+  cycles: Rational,
+  span: TableSpan,
+): number {
+  const top = 2 ** dac.bits - 1;
+  let clipped = 0;
+  for (let i = 0; i < tableLength; i++) {
+    const code = rawCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span)), dac);
+    if (code < 0 || code > top) clipped++;
+  }
+  return clipped;
+}
