@@ -1,0 +1,81 @@
+// Runs the bundled checker the way users and CI do: `node bin/waveplan.js …` as a child process.
+
+import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { build } from 'esbuild';
+
+export const ROOT = fileURLToPath(new URL('../..', import.meta.url)).replace(/[\\/]$/, '');
+export const BIN = path.join(ROOT, 'bin', 'waveplan.js');
+
+/**
+ * Bundles server/src/main.ts into dist/waveplan.js with the options of scripts/build.mjs (only
+ * the server entry, so a half-written client does not block these tests). Files are written to a
+ * temporary name and renamed, so another process reading the bundle never sees half a file.
+ */
+export async function buildChecker(): Promise<void> {
+  const result = await build({
+    entryPoints: [path.join(ROOT, 'server/src/main.ts')],
+    outfile: path.join(ROOT, 'dist/waveplan.js'),
+    bundle: true,
+    platform: 'node',
+    format: 'cjs',
+    target: 'node20',
+    sourcemap: true,
+    logLevel: 'silent',
+    write: false,
+  });
+  fs.mkdirSync(path.join(ROOT, 'dist'), { recursive: true });
+  for (const file of result.outputFiles) {
+    const temp = `${file.path}.${process.pid}.tmp`;
+    fs.writeFileSync(temp, file.contents);
+    fs.renameSync(temp, file.path);
+  }
+}
+
+export interface CliRun {
+  code: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+export function runCli(args: readonly string[], cwd: string = ROOT): CliRun {
+  const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8', timeout: 60_000 });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+/** sha256 of every file under `dir`, by relative path; for "the checker never writes" checks. */
+export function hashTree(dir: string): Record<string, string> {
+  const out: Record<string, string> = {};
+  const walk = (d: string) => {
+    for (const e of fs.readdirSync(d, { withFileTypes: true })) {
+      const full = path.join(d, e.name);
+      if (e.isDirectory()) walk(full);
+      else out[path.relative(dir, full)] = createHash('sha256').update(fs.readFileSync(full)).digest('hex');
+    }
+  };
+  walk(dir);
+  return out;
+}
+
+/**
+ * Compares `actual` with the golden file; `UPDATE_GOLDEN=1 npx vitest run test/cli` rewrites the
+ * golden files instead (review the diff before committing them).
+ */
+export function golden(name: string, actual: string): { expected: string; actual: string } {
+  const file = path.join(ROOT, 'test/cli/golden', name);
+  if (process.env.UPDATE_GOLDEN === '1') {
+    fs.mkdirSync(path.dirname(file), { recursive: true });
+    fs.writeFileSync(file, actual);
+  }
+  const expected = fs.existsSync(file) ? fs.readFileSync(file, 'utf8') : `(golden file ${name} missing: run with UPDATE_GOLDEN=1)`;
+  return { expected, actual };
+}
+
+/** A scratch folder under the system temp dir, removed by the caller. */
+export function scratchDir(prefix: string): string {
+  return fs.mkdtempSync(path.join(os.tmpdir(), `waveplan-${prefix}-`));
+}
