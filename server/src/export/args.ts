@@ -1,0 +1,97 @@
+// Command-line words of `waveplan export` and `waveplan report`. Misuse is a UsageError; the
+// commands turn it into a message, the usage text and exit code 2.
+
+import { UsageError } from '../cli/args';
+
+export { UsageError };
+
+export const EXPORT_USAGE = `usage: waveplan export <file.wave.yaml…> [--c <folder>] [--json <file>] [--force]
+
+Writes the checked plans as firmware sources: per wave spec a C header and a C file holding each
+output's sample table and divider register values (--c), and/or all plans as JSON (--json).
+Only specs without errors are exported; --force exports anyway, marks every file as unchecked,
+and still exits 1. Exit codes: 0 written, 1 the specs have errors, 2 misuse or unreadable files.
+`;
+
+export const REPORT_USAGE = `usage: waveplan report <file.wave.yaml…> --html <file>
+
+Writes one self-contained HTML page (no network access needed) with each output's plan, its
+pictures, the memory budget and the findings. The page is written even when the specs have
+errors. Exit codes: 0 no errors, 1 the specs have errors, 2 misuse or unreadable files.
+`;
+
+export interface ExportOptions {
+  specs: string[];
+  cDir: string | null;
+  json: string | null;
+  force: boolean;
+  help: boolean;
+}
+
+export interface ReportOptions {
+  specs: string[];
+  html: string | null;
+  help: boolean;
+}
+
+interface Parsed {
+  positional: string[];
+  values: Map<string, string>;
+  switches: Set<string>;
+}
+
+function parseWords(argv: readonly string[], valueFlags: readonly string[], switchFlags: readonly string[]): Parsed {
+  const parsed: Parsed = { positional: [], values: new Map(), switches: new Set() };
+  let flagsDone = false;
+  for (let i = 0; i < argv.length; i++) {
+    const word = argv[i];
+    if (flagsDone || !word.startsWith('-') || word === '-') {
+      parsed.positional.push(word);
+      continue;
+    }
+    if (word === '--') {
+      flagsDone = true;
+      continue;
+    }
+    const eq = word.indexOf('=');
+    const flag = eq >= 0 ? word.slice(0, eq) : word;
+    if (flag === '-h') {
+      parsed.switches.add('--help');
+    } else if (switchFlags.includes(flag)) {
+      if (eq >= 0) throw new UsageError(`${flag} takes no value`);
+      parsed.switches.add(flag);
+    } else if (valueFlags.includes(flag)) {
+      const value = eq >= 0 ? word.slice(eq + 1) : argv[++i];
+      if (value === undefined || value === '') throw new UsageError(`${flag} needs a value`);
+      if (parsed.values.has(flag)) throw new UsageError(`${flag} given twice`);
+      parsed.values.set(flag, value);
+    } else {
+      throw new UsageError(`unknown option ${flag}`);
+    }
+  }
+  return parsed;
+}
+
+export function parseExportArgs(argv: readonly string[]): ExportOptions {
+  const p = parseWords(argv, ['--c', '--json'], ['--force', '--help']);
+  const options: ExportOptions = {
+    specs: p.positional,
+    cDir: p.values.get('--c') ?? null,
+    json: p.values.get('--json') ?? null,
+    force: p.switches.has('--force'),
+    help: p.switches.has('--help'),
+  };
+  if (options.help) return options;
+  if (options.specs.length === 0) throw new UsageError('export needs at least one wave spec');
+  if (options.cDir === null && options.json === null) throw new UsageError('export needs --c <folder>, --json <file> or both');
+  return options;
+}
+
+export function parseReportArgs(argv: readonly string[]): ReportOptions {
+  const p = parseWords(argv, ['--html'], ['--help']);
+  const options: ReportOptions = { specs: p.positional, html: p.values.get('--html') ?? null, help: p.switches.has('--help') };
+  if (options.help) return options;
+  if (options.specs.length === 0) throw new UsageError('report needs at least one wave spec');
+  if (options.html === null) throw new UsageError('report needs --html <file>');
+  return options;
+}

@@ -1,0 +1,68 @@
+// The outputs an export writes: each planned output with its table built once by the planning
+// engine's own buildTable (the same samples the pictures show), and how many samples the DAC
+// range clipped.
+
+import { buildTable, rawCode, samplePhase, waveVolts } from '../planning/table';
+import type { Hardware, PlanFigures, TableSpan } from '../planning/types';
+import type { OutputAnalysis } from '../spec/types';
+import type { LoadedSpec } from './load';
+
+export interface ExportedOutput {
+  analysis: OutputAnalysis;
+  plan: PlanFigures;
+  span: TableSpan;
+  codes: Int32Array;
+  /** Samples whose ideal value fell outside the DAC's codes and were held at the rail. */
+  clipped: number;
+  /** The largest distance, in LSB, between a clipped sample's ideal code and its rail. */
+  clipLsb: number;
+}
+
+export interface ExportModel {
+  hardware: Hardware;
+  outputs: ExportedOutput[];
+  /** Outputs with no plan at all (only possible in a spec with errors). */
+  unplanned: string[];
+}
+
+export function spanOf(o: OutputAnalysis): TableSpan {
+  return o.request.pinned?.span ?? 'open';
+}
+
+export function exportModel(spec: LoadedSpec): ExportModel | null {
+  const hardware = spec.analysis.hardware;
+  if (!hardware) return null;
+  const outputs: ExportedOutput[] = [];
+  const unplanned: string[] = [];
+  for (const o of spec.analysis.outputs) {
+    const plan = o.planning.plan;
+    if (!plan) {
+      unplanned.push(o.name);
+      continue;
+    }
+    const span = spanOf(o);
+    const codes = buildTable(o.request.waveform, hardware.dac, plan.tableLength, plan.cycles, span);
+    outputs.push({ analysis: o, plan, span, codes, ...clipping(o, hardware.dac, plan, span) });
+  }
+  return { hardware, outputs, unplanned };
+}
+
+/**
+ * How far the table's ideal codes reach past the DAC's rails. A waveform that spans exactly the
+ * full scale reaches code 2^bits, one above the top code — clipped by one LSB, which the messages
+ * tell apart from real clipping.
+ */
+function clipping(o: OutputAnalysis, dac: Hardware['dac'], plan: PlanFigures, span: TableSpan): { clipped: number; clipLsb: number } {
+  const top = 2 ** dac.bits - 1;
+  let clipped = 0;
+  let clipLsb = 0;
+  for (let i = 0; i < plan.tableLength; i++) {
+    const raw = rawCode(waveVolts(o.request.waveform, samplePhase(i, plan.tableLength, plan.cycles, span)), dac);
+    const excess = raw > top ? raw - top : raw < 0 ? -raw : 0;
+    if (excess > 0) {
+      clipped++;
+      clipLsb = Math.max(clipLsb, excess);
+    }
+  }
+  return { clipped, clipLsb };
+}

@@ -1,0 +1,110 @@
+// `waveplan export`: analyse the wave specs, refuse to write anything while any has errors (unless
+// --force), then write per spec <prefix>.h and <prefix>.c (--c) and/or one JSON file (--json).
+// Exit 0 written, 1 the specs have errors (also after a forced export), 2 misuse or I/O failure.
+
+import * as fs from 'node:fs';
+import * as path from 'node:path';
+import { CliInputError } from '../cli/disk';
+import type { SpecDiagnostic } from '../spec/types';
+import { EXPORT_USAGE, parseExportArgs } from './args';
+import { cFiles, sampleType } from './c-export';
+import { outputIdentifiers, specPrefix } from './identifiers';
+import { exportJson, type ExportedSpec } from './json-export';
+import { diagnosticLine, loadSpecs, type LoadedSpec } from './load';
+import { exportModel } from './model';
+import { guarded, processIo, type CommandIo } from './io';
+
+function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['ids']; problems: SpecDiagnostic[] } {
+  const problems: SpecDiagnostic[] = [];
+  const hw = spec.analysis.hardware;
+  if (hw && sampleType(hw.dac.sampleBytes) === null)
+    problems.push({
+      range: spec.analysis.outputs[0]?.nameRange ?? { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
+      severity: 'error',
+      code: 'sample-width',
+      message: `The clock's sample-bytes is ${hw.dac.sampleBytes}; exported tables hold 1, 2 or 4 bytes per sample (uint8_t, uint16_t, uint32_t).`,
+    });
+  if (hw && hw.dac.bits > 8 * hw.dac.sampleBytes)
+    problems.push({
+      range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
+      severity: 'error',
+      code: 'sample-width',
+      message: `A ${hw.dac.bits}-bit code does not fit ${hw.dac.sampleBytes} byte(s) per sample; raise sample-bytes in the clock file.`,
+    });
+  if (!wantC) return { ids: null, problems };
+  const { ids, diagnostics } = outputIdentifiers(spec.file, spec.analysis.outputs);
+  return { ids, problems: problems.concat(diagnostics) };
+}
+
+function writeAll(files: ReadonlyArray<{ file: string; text: string }>): void {
+  for (const { file, text } of files) {
+    try {
+      fs.mkdirSync(path.dirname(file), { recursive: true });
+      fs.writeFileSync(file, text);
+    } catch (e) {
+      throw new CliInputError(`cannot write ${file}: ${(e as NodeJS.ErrnoException).code ?? 'error'}`);
+    }
+  }
+}
+
+export async function runExport(argv: string[], io: CommandIo = processIo()): Promise<number> {
+  return guarded('export', EXPORT_USAGE, io, () => {
+    const options = parseExportArgs(argv);
+    if (options.help) {
+      io.stdout(EXPORT_USAGE);
+      return 0;
+    }
+    const specs = loadSpecs(options.specs, io.cwd);
+    const prepared: ExportedSpec[] = [];
+    let errors = 0;
+    let blocking = 0;
+    for (const spec of specs) {
+      const { ids, problems } = exportProblems(spec, options.cDir !== null);
+      for (const d of spec.errors) io.stderr(`${diagnosticLine(spec, d)}\n`);
+      for (const d of problems) io.stderr(`${diagnosticLine(spec, d)}\n`);
+      errors += spec.errors.length + problems.length;
+      // Export problems (identifiers, sample width) make files that cannot compile: --force does not override them.
+      blocking += problems.length;
+      const model = exportModel(spec);
+      if (!model) {
+        blocking++;
+        io.stderr(`${spec.path}: no hardware could be read from its clock file; nothing to export\n`);
+        continue;
+      }
+      for (const o of model.outputs)
+        if (o.clipped > 0)
+          io.stderr(
+            `${spec.path}: ${o.clipLsb > 1 ? 'warning' : 'note'} ${o.analysis.name}: ${o.clipped} of ${o.plan.tableLength} samples clipped to the DAC range, by up to ${o.clipLsb} LSB\n`,
+          );
+      prepared.push({ spec, model, ids, forced: spec.errors.length > 0 });
+    }
+    if (blocking > 0 || (errors > 0 && !options.force)) {
+      io.stderr(
+        blocking > 0
+          ? 'nothing exported: the findings above make the export impossible\n'
+          : `nothing exported: ${errors} error${errors === 1 ? '' : 's'} (fix them, or pass --force to export unchecked plans)\n`,
+      );
+      return 1;
+    }
+
+    const writes: Array<{ file: string; text: string }> = [];
+    if (options.cDir !== null) {
+      const dir = path.resolve(io.cwd, options.cDir);
+      const seen = new Map<string, string>();
+      for (const p of prepared) {
+        const prefix = specPrefix(p.spec.file);
+        const other = seen.get(prefix);
+        if (other) throw new CliInputError(`${other} and ${p.spec.path} would both write ${prefix}.h; rename one of them`);
+        seen.set(prefix, p.spec.path);
+        for (const f of cFiles(p.spec, p.model, p.ids!, p.forced)) writes.push({ file: path.join(dir, f.name), text: f.text });
+      }
+    }
+    if (options.json !== null) writes.push({ file: path.resolve(io.cwd, options.json), text: exportJson(prepared) });
+    const inputs = new Set(specs.flatMap((s) => [s.file, s.analysis.clockPath ?? '']));
+    for (const w of writes) if (inputs.has(w.file)) throw new CliInputError(`refusing to overwrite a spec file: ${w.file}`);
+    writeAll(writes);
+    if (errors > 0) io.stderr(`!!! exported UNCHECKED plans with --force despite ${errors} error${errors === 1 ? '' : 's'}\n`);
+    io.stdout(`exported ${prepared.reduce((n, p) => n + p.model.outputs.length, 0)} output(s) from ${prepared.length} spec(s): ${writes.map((w) => path.relative(io.cwd, w.file).split(path.sep).join('/')).join(', ')}\n`);
+    return errors > 0 ? 1 : 0;
+  });
+}

@@ -1,0 +1,35 @@
+// `waveplan report`: analyse the wave specs and write one self-contained HTML page. The page is
+// written even when the specs have errors (it shows them); the exit code says whether they do:
+// 0 none, 1 errors, 2 misuse or I/O failure.
+
+import * as fs from 'node:fs';
+import * as path from 'node:path';
+import { CliInputError } from '../cli/disk';
+import { parseReportArgs, REPORT_USAGE } from './args';
+import { reportHtml } from './html-report';
+import { guarded, processIo, type CommandIo } from './io';
+import { loadSpecs } from './load';
+
+export async function runReport(argv: string[], io: CommandIo = processIo()): Promise<number> {
+  return guarded('report', REPORT_USAGE, io, () => {
+    const options = parseReportArgs(argv);
+    if (options.help) {
+      io.stdout(REPORT_USAGE);
+      return 0;
+    }
+    const specs = loadSpecs(options.specs, io.cwd);
+    const target = path.resolve(io.cwd, options.html!);
+    if (specs.some((s) => s.file === target || s.analysis.clockPath === target))
+      throw new CliInputError(`refusing to write the report over a spec file: ${options.html}`);
+    const html = reportHtml(specs);
+    try {
+      fs.mkdirSync(path.dirname(target), { recursive: true });
+      fs.writeFileSync(target, html);
+    } catch (e) {
+      throw new CliInputError(`cannot write ${options.html}: ${(e as NodeJS.ErrnoException).code ?? 'error'}`);
+    }
+    const errors = specs.reduce((n, s) => n + s.errors.length, 0);
+    io.stdout(`report written to ${options.html} (${specs.length} spec(s), ${errors} error(s))\n`);
+    return errors > 0 ? 1 : 0;
+  });
+}
