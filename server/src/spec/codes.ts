@@ -1,0 +1,165 @@
+// The catalogue of diagnostic codes. Quick fixes, the checker, the SARIF rules and the docs all key
+// on these codes; a code once published keeps its meaning.
+
+import type { Severity } from './types';
+
+export interface CodeInfo {
+  severity: Severity;
+  /** A few words, e.g. for a SARIF rule's shortDescription. */
+  title: string;
+  /** What it means and what to do, for docs and a SARIF rule's help text. */
+  help: string;
+}
+
+export const CODES = {
+  'file-too-large': {
+    severity: 'error',
+    title: 'File too large',
+    help: 'The file is larger than waveplan reads (1 MB); a spec is a few kilobytes. Check that the right file is named, or split it.',
+  },
+  'too-complex': {
+    severity: 'error',
+    title: 'YAML too deeply nested or too many aliases',
+    help: 'The YAML nests deeper than a spec ever needs or expands too many aliases; waveplan stops reading it rather than run out of memory. Write the keys out plainly.',
+  },
+  'yaml-syntax': {
+    severity: 'error',
+    title: 'YAML syntax error',
+    help: 'The text is not valid YAML (for example a bad indent, an unclosed quote or bracket, a tab used for indentation). Fix the syntax at the marked place; nothing else is checked until it parses.',
+  },
+  'unknown-key': {
+    severity: 'error',
+    title: 'Unknown key',
+    help: 'The key is not part of the file format. It is often a misspelling; the message suggests the nearest known key. The file reference lists every key.',
+  },
+  'duplicate-key': {
+    severity: 'error',
+    title: 'Duplicate key',
+    help: 'A key appears twice in the same mapping. Only the first is read; remove or rename the other.',
+  },
+  'duplicate-output': {
+    severity: 'error',
+    title: 'Duplicate output name',
+    help: 'Two outputs share a name. Only the first is planned; rename the other so that each output (and its exported table) has its own name.',
+  },
+  'bad-name': {
+    severity: 'error',
+    title: 'Output name not allowed',
+    help: 'Output names become identifiers in exported tables: start with a letter or _, then letters, digits, _ or -, at most 64 characters.',
+  },
+  'missing-key': {
+    severity: 'error',
+    title: 'Missing key',
+    help: 'A required key is absent. The message names it and gives an example value.',
+  },
+  'wrong-type': {
+    severity: 'error',
+    title: 'Wrong kind of value',
+    help: 'The value has the wrong type: text where a number belongs, a list where a mapping belongs, an empty value. The message says what belongs there.',
+  },
+  'bad-choice': {
+    severity: 'error',
+    title: 'Value not one of the choices',
+    help: 'The key takes one of a fixed set of words (for example shape: sine, square, triangle or sawtooth). The message lists them.',
+  },
+  'bad-unit': {
+    severity: 'error',
+    title: 'Unknown or wrong unit',
+    help: 'The unit is unknown, belongs to another quantity, or is missing where it is required. Units are case-sensitive: MHz is megahertz, mHz millihertz.',
+  },
+  'bad-quantity': {
+    severity: 'error',
+    title: 'Not a quantity',
+    help: 'The value is not a number with an optional unit (such as 125 MHz, 50 ppm, 64 KiB, 2 Vpp), or it is not a whole number where one is needed.',
+  },
+  'out-of-range': {
+    severity: 'error',
+    title: 'Value out of range',
+    help: 'The value is outside what the key allows (for example a negative frequency, a minimum above its maximum, or a DAC wider than its sample bytes).',
+  },
+  'unused-key': {
+    severity: 'warning',
+    title: 'Key has no effect',
+    help: 'The key is valid but does nothing here (for example duty on a sine). Remove it, or change the shape it applies to.',
+  },
+  'clock-unreadable': {
+    severity: 'error',
+    title: 'Clock file not found',
+    help: 'The clock file named by `clock:` cannot be read. The path is relative to the wave file; check the spelling and that the file exists.',
+  },
+  'clock-invalid': {
+    severity: 'error',
+    title: 'Clock file has errors',
+    help: 'The clock file named by `clock:` has errors of its own, so the outputs cannot be planned. Open it and fix them.',
+  },
+  overclock: {
+    severity: 'warning',
+    title: 'System clock above its rating',
+    help: "The system clock is above the rated-system-clock. Running a part beyond its datasheet rating can make it misbehave or fail; waveplan plans it anyway. Defer to the datasheet and qualified practice before running hardware this way.",
+  },
+  clipping: {
+    severity: 'error',
+    title: 'Output clips',
+    help: "offset ± amplitude/2 leaves the DAC's range of 0 V to full scale, so the waveform's peaks would be cut flat. Lower the amplitude or move the offset.",
+  },
+  nyquist: {
+    severity: 'error',
+    title: 'Samples per cycle at or below Nyquist',
+    help: 'A sine needs more than 2 samples per cycle (Nyquist); at 2 or fewer it aliases. Raise min-samples-per-cycle or the table length, or lower the frequency.',
+  },
+  'samples-per-cycle': {
+    severity: 'warning',
+    title: 'Samples per cycle',
+    help: 'The plan holds a non-whole number of samples per cycle for a square, triangle or sawtooth (edges and corners wander from cycle to cycle), or fewer samples per cycle than min-samples-per-cycle.',
+  },
+  'out-of-tolerance': {
+    severity: 'error',
+    title: 'Frequency out of tolerance',
+    help: 'No plan the hardware and the jitter policy allow meets the frequency within its tolerance. The message names the best achieved frequency, its error and the nearest jitter-free alternative; widen the tolerance, allow jitter, or change the clock.',
+  },
+  'fractional-plan': {
+    severity: 'warning',
+    title: 'Fractional divider chosen',
+    help: 'Only a fractional divider meets the tolerance. Its sample periods alternate between I and I+1 system clocks, which adds divider jitter; the message names its RMS and peak-to-peak time-interval error.',
+  },
+  'no-plan': {
+    severity: 'error',
+    title: 'No plan possible',
+    help: 'The hardware admits no plan at all for this output (for example every table long enough is over the memory budget, or every divider is too fast for the DAC).',
+  },
+  'pinned-plan': {
+    severity: 'error',
+    title: 'Pinned plan not possible',
+    help: "A plan written in the spec cannot run on the hardware: the divider is not I + F/2^k, it is outside the divider's range, it is fractional while jitter is forbidden, the sample rate is above the DAC's maximum, or the table length is out of range.",
+  },
+  'seam-glitch': {
+    severity: 'warning',
+    title: 'Glitch at the table wrap',
+    help: 'The step from the last table sample to the first differs from the waveform’s own step (the table holds a non-whole number of cycles, or spans N − 1 intervals so a sample repeats). The message gives the jump in LSB; a jump under 1 LSB is only noted (information).',
+  },
+  'table-over-budget': {
+    severity: 'error',
+    title: 'Table larger than the memory budget',
+    help: "One output's table alone is larger than the memory budget of the clock file. Shorten the table (fewer cycles) or raise the budget.",
+  },
+  'over-budget': {
+    severity: 'error',
+    title: 'Tables over the memory budget',
+    help: 'All tables together need more RAM than the memory budget of the clock file. Shorten tables, drop an output, or raise the budget.',
+  },
+  'too-many-outputs': {
+    severity: 'error',
+    title: 'Too many outputs',
+    help: 'The file lists more outputs than waveplan plans in one file (500); the rest are not planned. Split the file.',
+  },
+  'internal-error': {
+    severity: 'error',
+    title: 'waveplan failed on this input',
+    help: 'waveplan hit an unexpected condition while checking this part of the file. The rest of the file was checked; please report the input that caused it.',
+  },
+} as const satisfies Record<string, CodeInfo>;
+
+export type Code = keyof typeof CODES;
+
+export const codeInfo = (code: Code): CodeInfo => CODES[code];
+export const ALL_CODES = Object.keys(CODES) as Code[];

@@ -1,0 +1,200 @@
+// YAML text → a parsed document with offsets → LSP ranges, guarded against inputs that would
+// exhaust the parser (huge files, deep nesting, alias bombs). Duplicate keys are found here and
+// dropped (the first is kept), so every later step sees one value per key.
+
+import { type Document, type Node, type Pair, isAlias, isCollection, isPair, isScalar, isSeq, parseDocument } from 'yaml';
+import { type Code, codeInfo } from './codes';
+import type { Position, Range, SpecDiagnostic } from './types';
+
+/** A spec is a few kilobytes; the YAML parser needs about a second per megabyte on a slow machine. */
+export const MAX_FILE_CHARS = 1024 * 1024;
+/** A spec nests four levels; 32 leaves room and stays far from the parser's stack limit. */
+export const MAX_DEPTH = 32;
+export const MAX_ALIAS_COUNT = 100;
+
+/** Offsets (UTF-16 code units, as JS strings index) → 0-based line/character. */
+export class LineIndex {
+  private readonly starts: number[] = [0];
+  constructor(readonly text: string) {
+    for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) === 10) this.starts.push(i + 1);
+  }
+  position(offset: number): Position {
+    const o = Math.max(0, Math.min(offset, this.text.length));
+    let lo = 0;
+    let hi = this.starts.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (this.starts[mid] <= o) lo = mid;
+      else hi = mid - 1;
+    }
+    return { line: lo, character: o - this.starts[lo] };
+  }
+  range(start: number, end: number): Range {
+    return { start: this.position(start), end: this.position(Math.max(start, end)) };
+  }
+  /** The first line with text on it, trimmed: where file-wide diagnostics go. */
+  firstLine(): Range {
+    const m = /\S[^\n]*/.exec(this.text.slice(0, 10_000));
+    if (!m) return this.range(0, 0);
+    return this.range(m.index, m.index + m[0].trimEnd().length);
+  }
+}
+
+export function diagnostic(code: Code, range: Range, message: string, output?: string): SpecDiagnostic {
+  const d: SpecDiagnostic = { range, severity: codeInfo(code).severity, code, message };
+  if (output !== undefined) d.output = output;
+  return d;
+}
+
+export interface Source {
+  text: string;
+  lines: LineIndex;
+  /** Null when the text could not be parsed; diagnostics say why. */
+  doc: Document.Parsed | null;
+  /** The document as plain data (aliases expanded), for schema validation. */
+  data: unknown;
+  diagnostics: SpecDiagnostic[];
+}
+
+/** Deepest [ / { nesting outside quotes and comments, and where it first passes the limit. */
+function flowDepthBreach(text: string): number | undefined {
+  let depth = 0;
+  let quote = '';
+  let comment = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (comment) {
+      if (c === '\n') comment = false;
+    } else if (quote) {
+      if (c === quote) quote = '';
+      else if (c === '\\' && quote === '"') i++;
+    } else if (c === '"' || c === "'") {
+      quote = c;
+    } else if (c === '#' && (i === 0 || /\s/.test(text[i - 1]))) {
+      comment = true;
+    } else if (c === '[' || c === '{') {
+      if (++depth > MAX_DEPTH) return i;
+    } else if (c === ']' || c === '}') {
+      depth = Math.max(0, depth - 1);
+    }
+  }
+  return undefined;
+}
+
+/** Walks the tree without recursion; reports excessive depth and duplicate or complex keys. */
+function inspect(doc: Document.Parsed, lines: LineIndex, isOutputs: (path: string[]) => boolean): SpecDiagnostic[] {
+  const out: SpecDiagnostic[] = [];
+  const stack: { node: unknown; depth: number; path: string[] }[] = [{ node: doc.contents, depth: 0, path: [] }];
+  while (stack.length > 0) {
+    const { node, depth, path } = stack.pop()!;
+    if (!isCollection(node)) continue;
+    if (depth > MAX_DEPTH) {
+      const r = (node as Node).range;
+      out.push(diagnostic('too-complex', lines.range(r?.[0] ?? 0, r?.[0] ?? 0), `The YAML nests more than ${MAX_DEPTH} levels deep here: write the keys out plainly.`));
+      return out;
+    }
+    if (isSeq(node)) {
+      node.items.forEach((item, i) => stack.push({ node: item, depth: depth + 1, path: [...path, String(i)] }));
+      continue;
+    }
+    const seen = new Set<string>();
+    const kept: Pair[] = [];
+    for (const item of (node as { items: unknown[] }).items) {
+      if (!isPair(item)) continue;
+      const key = item.key;
+      const keyRange = isScalar(key) || isCollection(key) || isAlias(key) ? (key as Node).range : undefined;
+      const range = lines.range(keyRange?.[0] ?? 0, keyRange?.[1] ?? 0);
+      if (!isScalar(key) || key.value === null || typeof key.value === 'object') {
+        out.push(diagnostic('wrong-type', range, 'Keys must be plain names: write the key as a word, such as `frequency`.'));
+        continue;
+      }
+      const name = String(key.value);
+      if (seen.has(name)) {
+        out.push(
+          isOutputs(path)
+            ? diagnostic('duplicate-output', range, `Output \`${name}\` is named twice: rename this one (only the first is planned).`, name)
+            : diagnostic('duplicate-key', range, `\`${name}\` appears twice here: remove this one (only the first is read).`),
+        );
+        continue;
+      }
+      seen.add(name);
+      kept.push(item);
+      stack.push({ node: item.value, depth: depth + 1, path: [...path, name] });
+    }
+    (node as { items: unknown[] }).items = kept;
+  }
+  return out;
+}
+
+/** Parses a spec's text; never throws. `isOutputs` tells which mapping holds output names. */
+export function readSource(text: string, isOutputs: (path: string[]) => boolean = () => false): Source {
+  const lines = new LineIndex(text);
+  const fail = (d: SpecDiagnostic): Source => ({ text, lines, doc: null, data: undefined, diagnostics: [d] });
+  if (text.length > MAX_FILE_CHARS) {
+    const mb = (text.length / 1024 / 1024).toFixed(1);
+    return fail(diagnostic('file-too-large', lines.range(0, 0), `The file is ${mb} MB, more than the 1 MB waveplan reads: check that this is the spec you meant.`));
+  }
+  const breach = flowDepthBreach(text);
+  if (breach !== undefined) {
+    return fail(diagnostic('too-complex', lines.range(breach, breach + 1), `Brackets nest more than ${MAX_DEPTH} levels deep here: write the keys out plainly.`));
+  }
+  let doc: Document.Parsed;
+  try {
+    doc = parseDocument(text, { keepSourceTokens: true, uniqueKeys: false, prettyErrors: false });
+  } catch (e) {
+    return fail(diagnostic('too-complex', lines.firstLine(), `The YAML parser gave up on this file (${(e as Error).message.slice(0, 80)}): simplify the file.`));
+  }
+  const diagnostics: SpecDiagnostic[] = [];
+  for (const err of doc.errors) diagnostics.push(syntaxDiagnostic(lines, err.code, err.pos, err.message));
+  if (diagnostics.length > 0) return { text, lines, doc: null, data: undefined, diagnostics };
+  diagnostics.push(...inspect(doc, lines, isOutputs));
+  if (diagnostics.some((d) => d.code === 'too-complex')) return { text, lines, doc: null, data: undefined, diagnostics };
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
+  } catch (e) {
+    diagnostics.push(diagnostic('too-complex', lines.firstLine(), `The YAML expands too many aliases (${(e as Error).message.slice(0, 60)}): write the values out plainly.`));
+    return { text, lines, doc: null, data: undefined, diagnostics };
+  }
+  return { text, lines, doc, data, diagnostics };
+}
+
+/**
+ * An empty range (the parser often reports the end of the file) widened to the text of its line,
+ * or of the last line with text before it, so an editor shows a visible squiggle.
+ */
+function visibleRange(lines: LineIndex, from: number, to: number): Range {
+  const text = lines.text;
+  const start = Math.min(from, text.length);
+  const end = Math.min(to, text.length);
+  if (end > start) return lines.range(start, end);
+  let at = Math.min(start, text.length);
+  while (at > 0 && /\s/.test(text[at - 1]) && (at >= text.length || text[at] === '\n' || /\s/.test(text[at]))) at--;
+  const lineStart = text.lastIndexOf('\n', at - 1) + 1;
+  let lineEnd = text.indexOf('\n', at);
+  if (lineEnd < 0) lineEnd = text.length;
+  const slice = text.slice(lineStart, lineEnd);
+  const lead = slice.length - slice.trimStart().length;
+  return slice.trim() === '' ? lines.range(start, start) : lines.range(lineStart + lead, lineStart + slice.trimEnd().length);
+}
+
+/** One parser error → a diagnostic; an unclosed quote is marked from its opening quote. */
+function syntaxDiagnostic(lines: LineIndex, code: string, pos: [number, number], raw: string): SpecDiagnostic {
+  if (code === 'RESOURCE_EXHAUSTION') {
+    return diagnostic('too-complex', visibleRange(lines, pos[0], pos[1]), 'The YAML is too deeply nested for the parser: write the keys out plainly.');
+  }
+  if (code === 'MULTIPLE_DOCS') {
+    return diagnostic('yaml-syntax', visibleRange(lines, pos[0], pos[1]), 'A spec is one YAML document: remove this `---` and the document after it, or move it to a file of its own.');
+  }
+  const quote = code === 'MISSING_CHAR' ? /closing (["'])/.exec(raw)?.[1] : undefined;
+  if (quote) {
+    const open = lines.text.lastIndexOf(quote, Math.min(pos[0], lines.text.length) - 1);
+    if (open >= 0) {
+      let end = lines.text.indexOf('\n', open);
+      if (end < 0) end = lines.text.length;
+      return diagnostic('yaml-syntax', lines.range(open, end), `This quoted text has no closing ${quote}: add one where the text ends.`);
+    }
+  }
+  const first = raw.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '').trim().replace(/\.$/, '');
+  return diagnostic('yaml-syntax', visibleRange(lines, pos[0], pos[1]), `YAML syntax: ${first}; fix the text here.`);
+}

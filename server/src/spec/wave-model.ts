@@ -1,0 +1,177 @@
+// A wave spec's outputs → OutputRequests for the planner, with the checks that need the clock
+// file's hardware: clipping against the DAC's range, the Nyquist floor, and a pinned plan the
+// hardware cannot run.
+
+import { type Document, isMap, isScalar } from 'yaml';
+import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
+import {
+  DEFAULT_DUTY,
+  DEFAULT_JITTER,
+  DEFAULT_MIN_SAMPLES_PER_CYCLE,
+  DEFAULT_TABLE_SPAN,
+  DEFAULT_TOLERANCE,
+  NYQUIST_SAMPLES_PER_CYCLE,
+} from '../../../shared-schema/src/defaults';
+import { parseQuantity, toleranceHz } from '../../../shared-schema/src/quantity';
+import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-format';
+import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
+import { pinnedProblems } from '../planning/pinned';
+import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
+import { diagnostic, type LineIndex } from './source';
+import { entryRange, keyRange, locate, valueRange } from './nodes';
+import type { Quantities } from './quantities';
+import type { OutputAnalysis, Range, SpecDiagnostic } from './types';
+
+/** An output ready to plan: everything of its analysis but the planning. */
+export type OutputDraft = Omit<OutputAnalysis, 'planning'>;
+
+/** Output names in file order, with their entries as plain data. */
+export function outputNames(doc: Document.Parsed): string[] {
+  const outputs = locate(doc, ['outputs'])?.value;
+  if (!isMap(outputs)) return [];
+  return outputs.items.flatMap((p) => (isScalar(p.key) ? [String(p.key.value)] : []));
+}
+
+function rangesOf(doc: Document.Parsed, lines: LineIndex, name: string): Record<string, Range> {
+  const ranges: Record<string, Range> = {};
+  const entry = locate(doc, ['outputs', name])?.value;
+  if (!isMap(entry)) return ranges;
+  for (const pair of entry.items) {
+    if (!isScalar(pair.key)) continue;
+    const key = String(pair.key.value);
+    const r = valueRange(doc, lines, ['outputs', name, key]);
+    if (r) ranges[key] = r;
+    if (key === 'plan' && isMap(pair.value)) {
+      for (const sub of pair.value.items) {
+        if (!isScalar(sub.key)) continue;
+        const sr = valueRange(doc, lines, ['outputs', name, 'plan', String(sub.key.value)]);
+        if (sr) ranges[`plan.${String(sub.key.value)}`] = sr;
+      }
+    }
+  }
+  return ranges;
+}
+
+/** A documented default, parsed by the same code as a value the engineer wrote. */
+function parseDefault(kind: 'tolerance' | 'duty', text: string) {
+  const parsed = parseQuantity(kind, text);
+  if (!parsed.ok) throw new Error(`default ${text} does not parse: ${parsed.message}`);
+  return parsed;
+}
+
+/**
+ * Builds one output's request. Returns the draft (null when the entry cannot be planned) and the
+ * diagnostics found on the way.
+ */
+export function buildOutput(
+  name: string,
+  entry: OutputEntry,
+  q: Quantities,
+  hw: Hardware,
+  doc: Document.Parsed,
+  lines: LineIndex,
+): { draft: OutputDraft | null; diagnostics: SpecDiagnostic[] } {
+  const diagnostics: SpecDiagnostic[] = [];
+  const nameRange = keyRange(doc, lines, ['outputs', name])!;
+  const valueRanges = rangesOf(doc, lines, name);
+  const at = (key: string): Range => valueRanges[key] ?? nameRange;
+  const get = (...key: string[]) => q.get(['outputs', name, ...key]);
+  const push = (code: Parameters<typeof diagnostic>[0], range: Range, message: string) => diagnostics.push(diagnostic(code, range, message, name));
+
+  const frequency = get('frequency');
+  if (!frequency) return { draft: null, diagnostics };
+  const targetHz = frequency.value;
+  const shape = entry.shape;
+
+  const tolerance = get('tolerance') ?? parseDefault('tolerance', DEFAULT_TOLERANCE);
+  const floorText = get('min-samples-per-cycle');
+  const minSamplesPerCycle = floorText?.value ?? rat(DEFAULT_MIN_SAMPLES_PER_CYCLE[shape]);
+  if (shape === 'sine' && cmp(minSamplesPerCycle, rat(NYQUIST_SAMPLES_PER_CYCLE)) <= 0) {
+    push('nyquist', at('min-samples-per-cycle'), `A sine needs more than 2 samples per cycle (Nyquist): raise min-samples-per-cycle above 2 (8 is the default).`);
+  }
+
+  if (entry.duty !== undefined && shape !== 'square') {
+    push('unused-key', keyRange(doc, lines, ['outputs', name, 'duty']) ?? at('duty'), `duty applies to square waves only: remove it from this ${shape}.`);
+  }
+  const duty = toNumber((get('duty') ?? parseDefault('duty', DEFAULT_DUTY)).value);
+
+  // Clipping is decided exactly: 3.3 V full scale holds 1.65 V ± 1.65 V.
+  const fullScale = fromNumber(hw.dac.fullScaleV);
+  const amplitude = get('amplitude')?.value ?? fullScale;
+  const offset = get('offset')?.value ?? div(fullScale, rat(2n));
+  const half = div(amplitude, rat(2n));
+  const low = sub(offset, half);
+  const high = add(offset, half);
+  if (cmp(low, rat(0n)) < 0 || cmp(high, fullScale) > 0) {
+    const where = valueRanges.amplitude ?? valueRanges.offset ?? nameRange;
+    push(
+      'clipping',
+      where,
+      `The output swings from ${formatVolts(toNumber(low))} to ${formatVolts(toNumber(high))}, outside the DAC's 0 V to ${formatVolts(hw.dac.fullScaleV)}: lower the amplitude or move the offset.`,
+    );
+  }
+
+  const request: OutputRequest = {
+    targetHz,
+    minSamplesPerCycle,
+    waveform: { shape, duty, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset) },
+    toleranceHz: toleranceHz(tolerance, targetHz),
+    jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
+  };
+  if (entry.plan) {
+    const pinned = pinPlan(entry.plan, request.jitter, hw, (key) => get('plan', key)?.value, (key) => valueRanges[`plan.${key}`] ?? at('plan'), push);
+    if (!pinned) return { draft: null, diagnostics };
+    request.pinned = pinned;
+  }
+  const entryR = entryRange(doc, lines, ['outputs', name]) ?? nameRange;
+  return { draft: { name, nameRange, entryRange: entryR, valueRanges, targetHz, request }, diagnostics };
+}
+
+type Push = (code: 'pinned-plan', range: Range, message: string) => void;
+
+/** Checks a hand-written plan against the hardware; a divider the hardware cannot make is rounded to the nearest one it can. */
+function pinPlan(
+  plan: NonNullable<OutputEntry['plan']>,
+  jitter: 'forbid' | 'allow',
+  hw: Hardware,
+  value: (key: string) => Rational | undefined,
+  at: (key: string) => Range,
+  push: Push,
+): PinnedPlan | null {
+  const divider = value('divider');
+  const cycles = value('cycles');
+  if (!divider || !cycles) return null;
+  const k = hw.divider.fractionBits;
+  const steps = 1n << BigInt(k);
+  let scaled = mul(divider, rat(steps));
+  if (!isInteger(scaled)) {
+    // Round half up to the nearest step the divider can make.
+    const nearest = floor(add(scaled, rat(1n, 2n)));
+    const better = div(rat(nearest), rat(steps));
+    const grid = k === 0 ? 'a whole number' : `a whole number plus a multiple of 1/${steps}`;
+    push('pinned-plan', at('divider'), `The divider must be ${grid} (fraction-bits ${k}): write ${toDecimal(better, 24)}, the nearest the hardware can make.`);
+    scaled = rat(nearest);
+  }
+  const dividerInteger = Number(scaled.num / steps);
+  const dividerFraction = Number(scaled.num % steps);
+  if (dividerFraction !== 0 && jitter === 'forbid') {
+    push('pinned-plan', at('divider'), `This divider has a fraction, which adds divider jitter while jitter is forbid: use a whole divider or set jitter: allow.`);
+  }
+  const n = plan['table-length'];
+  const pinned: PinnedPlan = { dividerInteger, dividerFraction, tableLength: n, cycles, span: plan['table-span'] ?? (DEFAULT_TABLE_SPAN as 'open') };
+  const { tableLengthMin: nMin, tableLengthMax: nMax } = hw.memory;
+  // The engine names what the plan breaks; the seam and the budget are reported with its figures.
+  for (const problem of pinnedProblems(hw, pinned)) {
+    if (problem === 'divider-integer-out-of-range') {
+      push('pinned-plan', at('divider'), `The divider's integer part ${dividerInteger} is outside the clock file's ${hw.divider.integerMin} to ${hw.divider.integerMax}: pick a divider within it.`);
+    } else if (problem === 'sample-rate-too-high') {
+      const rate = div(hw.systemClockHz, div(scaled, rat(steps)));
+      push('pinned-plan', at('divider'), `This divider gives a sample rate of ${formatHz(rate)}, above the DAC's max-sample-rate ${formatHz(hw.dac.maxSampleRateHz)}: use a larger divider.`);
+    } else if (problem === 'table-length-out-of-range') {
+      push('pinned-plan', at('table-length'), `table-length ${n} is outside the clock file's ${nMin} to ${nMax}: pick a length within it.`);
+    } else if (problem === 'table-length-not-power-of-two') {
+      push('pinned-plan', at('table-length'), `table-length ${n} is not a power of two, which the clock file requires: use ${2 ** Math.round(Math.log2(n))}.`);
+    }
+  }
+  return pinned;
+}

@@ -1,0 +1,85 @@
+// `*.clock.yaml`: the hardware every wave spec of a board plans against. The single source of
+// truth for the file's keys: validation, the JSON Schema, the reference docs and hover text.
+
+import { z } from 'zod';
+import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO } from './defaults';
+import { optional, quantity, required, whole } from './schema-kit';
+
+/** 100 GHz: far above any microcontroller, low enough to catch a slipped exponent. */
+export const MAX_FREQUENCY_HZ = 1e11;
+/** 2^26 samples: a table larger than this is not held in microcontroller RAM. */
+export const MAX_TABLE_LENGTH = 2 ** 26;
+export const MAX_DIVIDER_INTEGER = 2 ** 32;
+/** Above 16 bits the divider's period pattern (2^k samples) stops being a useful figure. */
+export const MAX_FRACTION_BITS = 16;
+
+const frequency = () => quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ });
+
+export const clockSchema = z
+  .strictObject({
+    description: optional(z.string(), 'Free text about the board or the clock setup; waveplan shows it and does not read it.'),
+    'system-clock': required(
+      frequency(),
+      'f_sys, the clock the sample-clock divider divides, e.g. `125 MHz`; exact as written (decimal text, never rounded).',
+    ),
+    'rated-system-clock': optional(
+      frequency(),
+      "The highest system clock the part's datasheet allows. A `system-clock` above it gets a caution: check the datasheet and qualified practice before running hardware that way.",
+    ),
+    divider: required(
+      z.strictObject({
+        integer: required(
+          z.strictObject({
+            min: required(whole(1, MAX_DIVIDER_INTEGER), 'Smallest integer part I of the divider D = I + F/2^k.'),
+            max: required(whole(1, MAX_DIVIDER_INTEGER), 'Largest integer part I of the divider D = I + F/2^k.'),
+          }),
+          'Range of the integer part I of the sample-clock divider.',
+        ),
+        'fraction-bits': optional(
+          whole(0, MAX_FRACTION_BITS),
+          'k, the fraction bits of the divider D = I + F/2^k; 0 means an integer-only divider (no divider jitter).',
+          DEFAULT_FRACTION_BITS,
+        ),
+      }),
+      'The sample-clock divider: f_s = f_sys / D with D = I + F/2^k.',
+    ),
+    dac: required(
+      z.strictObject({
+        bits: required(whole(1, 32), 'Resolution of the DAC in bits; one LSB is full-scale / 2^bits.'),
+        'sample-bytes': required(whole(1, 8), 'Bytes one sample takes in RAM (the DMA transfer width), e.g. 2 for a 12-bit DAC.'),
+        'full-scale': required(
+          quantity({ kind: 'voltage', min: 0, minExclusive: true, max: 1000 }),
+          'Output voltage at the top code, e.g. `3.3 V`; outputs are checked to stay within 0 V and this.',
+        ),
+        'max-sample-rate': required(
+          frequency(),
+          'Highest sample rate the DAC and the DMA sustain (settling, bus bandwidth), e.g. `50 MHz`.',
+        ),
+      }),
+      'The DAC the tables stream into.',
+    ),
+    memory: required(
+      z.strictObject({
+        budget: required(
+          quantity({ kind: 'bytes', min: 0, minExclusive: true, max: 2 ** 32 }),
+          'RAM set aside for all tables together, e.g. `64 KiB`.',
+        ),
+        'table-length': required(
+          z.strictObject({
+            min: required(whole(1, MAX_TABLE_LENGTH), 'Fewest samples a table may hold.'),
+            max: required(whole(1, MAX_TABLE_LENGTH), 'Most samples a table may hold (a DMA transfer-count limit, for example).'),
+          }),
+          'Range of the table length N in samples.',
+        ),
+        'power-of-two': optional(
+          z.boolean(),
+          'true when every table length must be a power of two (a DMA ring buffer wraps on an aligned power-of-two size).',
+          DEFAULT_POWER_OF_TWO,
+        ),
+      }),
+      'Limits on the sample tables.',
+    ),
+  })
+  .describe('A waveplan clock file: the system clock, the sample-clock divider, the DAC and the memory for tables.');
+
+export type ClockFile = z.infer<typeof clockSchema>;

@@ -1,0 +1,93 @@
+// `*.wave.yaml`: the outputs of one board and what each must produce. The single source of truth
+// for the file's keys: validation, the JSON Schema, the reference docs and hover text.
+
+import { z } from 'zod';
+import {
+  DEFAULT_DUTY,
+  DEFAULT_JITTER,
+  DEFAULT_MIN_SAMPLES_PER_CYCLE,
+  DEFAULT_REASONS,
+  DEFAULT_TABLE_SPAN,
+  DEFAULT_TOLERANCE,
+} from './defaults';
+import { MAX_DIVIDER_INTEGER, MAX_FREQUENCY_HZ, MAX_TABLE_LENGTH } from './clock-schema';
+import { SHAPES } from './shape';
+import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
+
+/** Output names become identifiers in exported firmware tables. */
+export const OUTPUT_NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_-]{0,63}$/;
+
+const floors = Object.entries(DEFAULT_MIN_SAMPLES_PER_CYCLE)
+  .map(([shape, s]) => `${shape} ${s}`)
+  .join(', ');
+
+const pinnedPlanSchema = z.strictObject({
+  divider: required(
+    quantity({ kind: 'number', min: 0, minExclusive: true, max: MAX_DIVIDER_INTEGER }),
+    'The divider D as a decimal, e.g. `1.953125`; it must be I + F/2^k for the clock file\'s fraction bits k.',
+  ),
+  'table-length': required(whole(1, MAX_TABLE_LENGTH), 'N, the samples in the table.'),
+  cycles: required(
+    quantity({ kind: 'number', min: 0, minExclusive: true, max: MAX_TABLE_LENGTH }),
+    'M, the cycles the table holds; anything but a whole number breaks the seam at the wrap, and waveplan says so.',
+  ),
+  'table-span': optional(
+    z.enum(['open', 'closed']),
+    '`open`: the table spans N intervals and wraps seamlessly; `closed`: it spans N − 1 intervals, so its last sample repeats the first (a glitch at the wrap).',
+    DEFAULT_TABLE_SPAN,
+  ),
+});
+
+export const outputSchema = z.strictObject({
+  description: optional(z.string(), 'Free text about this output; waveplan shows it and does not read it.'),
+  shape: required(z.enum(SHAPES), 'The waveform the table holds.'),
+  duty: optional(
+    quantity({ kind: 'duty', min: 0, minExclusive: true, max: 1, maxExclusive: true }),
+    'Square waves only: the share of the cycle spent high, as `50 %` or `0.5`.',
+    DEFAULT_DUTY,
+  ),
+  frequency: required(
+    quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ }),
+    'f_target, the output frequency, e.g. `3.997802734375 MHz`; exact as written.',
+  ),
+  tolerance: optional(
+    quantity({ kind: 'tolerance', min: 0 }),
+    `Allowed |achieved − target| in ppm, ppb, % or Hz. The default is ${DEFAULT_REASONS.tolerance}.`,
+    DEFAULT_TOLERANCE,
+  ),
+  'min-samples-per-cycle': optionalDerived(
+    quantity({ kind: 'number', min: 0, minExclusive: true, max: MAX_TABLE_LENGTH }),
+    `Floor on S = N/M, the samples per cycle. Defaults: ${floors}. Sine: ${DEFAULT_REASONS.minSamplesPerCycle.sine}; square: ${DEFAULT_REASONS.minSamplesPerCycle.square}; triangle and sawtooth: ${DEFAULT_REASONS.minSamplesPerCycle.triangle}. A sine must stay above 2 (Nyquist).`,
+    `by shape: ${floors}`,
+  ),
+  jitter: optional(
+    z.enum(['forbid', 'allow']),
+    '`forbid`: integer dividers only, no divider jitter; `allow`: a fractional divider may be used when no integer one meets the tolerance.',
+    DEFAULT_JITTER,
+  ),
+  amplitude: optionalDerived(
+    quantity({ kind: 'voltage-pp', min: 0, max: 2000 }),
+    "Peak-to-peak swing, e.g. `2 Vpp`; offset ± amplitude/2 must stay within 0 V and the DAC's full scale.",
+    DEFAULT_REASONS.amplitude,
+  ),
+  offset: optionalDerived(
+    quantity({ kind: 'voltage', min: -1000, max: 1000 }),
+    "Mid-level of the waveform, e.g. `1.65 V`; offset ± amplitude/2 must stay within 0 V and the DAC's full scale.",
+    DEFAULT_REASONS.offset,
+  ),
+  plan: optional(pinnedPlanSchema, 'A plan written by hand: waveplan checks it instead of searching for one.'),
+}).describe('One output: the waveform, its frequency and tolerance, and the limits its plan must keep.');
+
+export const waveSchema = z
+  .strictObject({
+    description: optional(z.string(), 'Free text about these outputs; waveplan shows it and does not read it.'),
+    clock: required(z.string().min(1), 'Path of the clock file these outputs run on, relative to this file, e.g. `./bench.clock.yaml`.'),
+    outputs: required(
+      z.record(z.string().regex(OUTPUT_NAME_PATTERN), outputSchema),
+      'The outputs by name (a letter or _, then letters, digits, _ or -); each is planned on its own, and their tables share the memory budget.',
+    ),
+  })
+  .describe('A waveplan wave file: the outputs one board produces, planned against its clock file.');
+
+export type WaveFile = z.infer<typeof waveSchema>;
+export type OutputEntry = z.infer<typeof outputSchema>;

@@ -1,0 +1,73 @@
+// Any text gives diagnostics with valid ranges and known codes: never a throw, never a range
+// outside the text. Truncations at every offset and seeded random edits of the good wave spec
+// and its clock file (the technique is ordinary mutation fuzzing; a fixed seed keeps it repeatable).
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { analyze } from '../../../server/src/spec/analyze';
+import { CODES } from '../../../server/src/spec/codes';
+import type { Analysis } from '../../../server/src/spec/types';
+import { FIXTURES, diskHost } from './fixture-host';
+
+const GOOD = join(FIXTURES, 'good');
+const cases = [join(GOOD, 'good.wave.yaml'), join(GOOD, 'bench.clock.yaml')].map((path) => ({ path, text: readFileSync(path, 'utf8') }));
+
+function seeded(seed: number) {
+  return () => {
+    seed = (seed * 1103515245 + 12345) % 2147483648;
+    return seed / 2147483648;
+  };
+}
+
+function checkRanges(a: Analysis, text: string): void {
+  const lines = text.split('\n');
+  for (const d of a.diagnostics) {
+    expect(Object.hasOwn(CODES, d.code), d.code).toBe(true);
+    expect(d.message.length).toBeGreaterThan(10);
+    for (const p of [d.range.start, d.range.end]) {
+      expect(p.line).toBeGreaterThanOrEqual(0);
+      expect(p.line).toBeLessThan(lines.length);
+      expect(p.character).toBeGreaterThanOrEqual(0);
+      expect(p.character).toBeLessThanOrEqual(lines[p.line].length);
+    }
+    const ordered = d.range.start.line < d.range.end.line || (d.range.start.line === d.range.end.line && d.range.start.character <= d.range.end.character);
+    expect(ordered).toBe(true);
+  }
+  expect(a.diagnostics.some((d) => d.code === 'internal-error'), JSON.stringify(a.diagnostics)).toBe(false);
+}
+
+const PIECES = ['', ' ', '\n', '\t', ':', '-', '[', ']', '{', '}', '"', "'", '#', '&a', '*a', '!!str', '?', '|', '>', '0', '-1', '1e999', 'MHz', 'mhz', '%', 'ppm', '\u0000', '🎵', '\r\n', '    ', 'outputs:', 'plan:'];
+
+describe('robustness', () => {
+  for (const { path, text } of cases) {
+    const name = path.split('/').pop()!;
+    it(`${name}: every truncation analyses without throwing`, () => {
+      for (let cut = 0; cut <= text.length; cut++) {
+        const t = text.slice(0, cut);
+        checkRanges(analyze(path, t, diskHost), t);
+      }
+    }, 120_000);
+
+    it(`${name}: 400 seeded random edits analyse without throwing`, () => {
+      const random = seeded(name.length * 7919);
+      for (let i = 0; i < 400; i++) {
+        let t = text;
+        const edits = 1 + Math.floor(random() * 3);
+        for (let e = 0; e < edits; e++) {
+          const at = Math.floor(random() * (t.length + 1));
+          const len = Math.floor(random() * 4);
+          const piece = random() < 0.5 ? PIECES[Math.floor(random() * PIECES.length)] : String.fromCharCode(Math.floor(random() * 0x7f));
+          t = t.slice(0, at) + piece + t.slice(at + len);
+        }
+        checkRanges(analyze(path, t, diskHost), t);
+      }
+    }, 120_000);
+  }
+
+  it('analysis never writes: the fixtures are unchanged afterwards', () => {
+    for (const { path, text } of cases) {
+      analyze(path, text, diskHost);
+      expect(readFileSync(path, 'utf8')).toBe(text);
+    }
+  });
+});
