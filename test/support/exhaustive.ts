@@ -52,9 +52,10 @@ function better(a: Entry, b: Entry, fractional: boolean): number {
 
 /**
  * Best plan by brute force. fractional = false tries F = 0 only (the jitter-free optimum);
- * true tries every F in [0, 2^k − 1].
+ * true tries every F in [0, 2^k − 1]. whole = true admits only tables whose length is a
+ * multiple of their cycles (whole samples per cycle) and then tries every such M.
  */
-export function exhaustivePlan(hw: Hardware, req: PlanRequest, fractional: boolean): OraclePlan | null {
+export function exhaustivePlan(hw: Hardware, req: PlanRequest, fractional: boolean, whole = false): OraclePlan | null {
   const k = hw.divider.fractionBits;
   const fractions = fractional ? 2 ** k : 1;
   const lengths = allowedLengths(hw);
@@ -72,7 +73,11 @@ export function exhaustivePlan(hw: Hardware, req: PlanRequest, fractional: boole
         if (mMax < 1n) continue;
         const mIdeal = div(mul(mul(req.targetHz, divider), rat(N)), hw.systemClockHz);
         const tries = new Set<bigint>();
-        for (const m of [floor(mIdeal), ceil(mIdeal)]) tries.add(m < 1n ? 1n : m > mMax ? mMax : m);
+        if (whole) {
+          for (let m = 1n; m <= mMax; m++) if (BigInt(N) % m === 0n) tries.add(m);
+        } else {
+          for (const m of [floor(mIdeal), ceil(mIdeal)]) tries.add(m < 1n ? 1n : m > mMax ? mMax : m);
+        }
         for (const M of tries) {
           const achievedHz = div(mul(hw.systemClockHz, rat(M)), mul(divider, rat(N)));
           const errorHz = sub(achievedHz, req.targetHz);

@@ -16,7 +16,7 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
     dv.integerMin, dv.integerMax, dv.fractionBits,
     dac.bits, dac.sampleBytes, dac.fullScaleV, q(dac.maxSampleRateHz),
     mem.budgetBytes, mem.tableLengthMin, mem.tableLengthMax, mem.powerOfTwo,
-    q(req.targetHz), q(req.minSamplesPerCycle), q(req.toleranceHz), req.jitter,
+    q(req.targetHz), q(req.minSamplesPerCycle), q(req.toleranceHz), req.jitter, req.wholeSamplesPerCycle === true,
     w.shape, w.duty, w.amplitudeVpp, w.offsetV,
     p ? [p.dividerInteger, p.dividerFraction, p.tableLength, q(p.cycles), p.span].join(',') : '-',
   ].join('|');

@@ -5,6 +5,7 @@ import { PlanningCache, planningKey } from './cache';
 import { describePlan } from './figures';
 import { pinnedPlan } from './pinned';
 import { bestFractional, nearestJitterFree } from './search';
+import { nearestWholeCycle } from './whole';
 import type { Hardware, OutputPlanning, OutputRequest, Plan, PlanFigures } from './types';
 
 /** The memo shared by every caller of planOutput (language server, checker, exporters). */
@@ -21,9 +22,11 @@ export function planOutput(hw: Hardware, req: OutputRequest): OutputPlanning {
 export function planOutputUncached(hw: Hardware, req: OutputRequest): OutputPlanning {
   const describe = (plan: Plan | null, span: 'open' | 'closed' = 'open'): PlanFigures | null =>
     plan === null ? null : describePlan(hw, req, req.waveform, plan, span);
-  const nearest = describe(nearestJitterFree(hw, req));
+  const whole = req.wholeSamplesPerCycle === true;
+  const nearest = describe(whole ? nearestWholeCycle(hw, req, false) : nearestJitterFree(hw, req));
   // Always searched when the divider has fraction bits: the editor offers it as a quick fix.
-  const fractional = hw.divider.fractionBits > 0 ? describe(bestFractional(hw, req)) : null;
+  const fractional =
+    hw.divider.fractionBits > 0 ? describe(whole ? nearestWholeCycle(hw, req, true) : bestFractional(hw, req)) : null;
   const base = { nearestJitterFree: nearest, bestFractional: fractional };
 
   if (req.pinned) {

@@ -11,6 +11,9 @@ import { type Rational, isInteger } from '../../../shared-schema/src/rational';
 import { sampleCode } from './table';
 import type { Hardware, Seam, TableSpan, Waveform } from './types';
 
+/** Samples after the wrap compared with the continuous waveform. */
+const SEAM_WINDOW = 4;
+
 export function seamCheck(
   waveform: Waveform,
   dac: Hardware['dac'],
@@ -20,11 +23,15 @@ export function seamCheck(
 ): Seam {
   const n = Math.floor(tableLength);
   if (n < 1) return { ok: false, jumpLsb: 0, cause: null };
-  const first = sampleCode(waveform, dac, 0, n, cycles, span);
-  const last = sampleCode(waveform, dac, n - 1, n, cycles, span);
-  const next = sampleCode(waveform, dac, n, n, cycles, span);
-  // (first − last) − (next − last): the actual wrap step minus the waveform's own step.
-  const jumpLsb = Math.abs(first - last - (next - last));
+  // The samples that follow the wrap against the ones a continuous phase would give there, over
+  // a few samples: half a sine cycle (M = 2.5) wraps to the right code with the wrong slope, which
+  // only the second sample after the wrap shows.
+  let jumpLsb = 0;
+  for (let k = 0; k < Math.min(n, SEAM_WINDOW); k++) {
+    const played = sampleCode(waveform, dac, k, n, cycles, span);
+    const continued = sampleCode(waveform, dac, n + k, n, cycles, span);
+    jumpLsb = Math.max(jumpLsb, Math.abs(played - continued));
+  }
   const whole = isInteger(cycles);
   const cause: Seam['cause'] = !whole
     ? 'fractional-cycles'

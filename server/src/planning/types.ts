@@ -41,6 +41,8 @@ export interface PlanRequest {
   targetHz: Rational;
   /** S floor: every plan keeps N/M ≥ this (a sine must stay above 2). */
   minSamplesPerCycle: Rational;
+  /** Only tables whose length is a multiple of their cycles (square, triangle, sawtooth). */
+  wholeSamplesPerCycle?: boolean;
 }
 
 /**

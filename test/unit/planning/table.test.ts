@@ -86,7 +86,12 @@ describe('seam at the table wrap', () => {
   });
 
   it('a sine with M = 10.5 wraps at a zero crossing with the right code but the wrong slope: still caught', () => {
-    expect(seamCheck(wave('sine'), dac12, 64, rat(21, 2), 'open')).toMatchObject({ ok: false, cause: 'fractional-cycles' });
+    const seam = seamCheck(wave('sine'), dac12, 64, rat(21, 2), 'open');
+    expect(seam).toMatchObject({ ok: false, cause: 'fractional-cycles' });
+    // derived: two samples after the wrap the table plays sin(θ), a continuous phase −sin(θ),
+    // θ = 2π·10.5·2/64 = 2.0617 rad: 2 · 1.5 V · 0.8819 / (3.3 V/4096) = 3284 LSB.
+    expect(seam.jumpLsb).toBeGreaterThanOrEqual(3280);
+    expect(seam.jumpLsb).toBeLessThanOrEqual(3288);
   });
 
   it('a closed span is caught as a repeated sample; 12-bit sine, 3 Vpp, N = 64 jumps 185 LSB (derived)', () => {
