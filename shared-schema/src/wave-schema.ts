@@ -60,6 +60,11 @@ export const outputSchema = z.strictObject({
     `Floor on S = N/M, the samples per cycle. Defaults: ${floors}. Sine: ${DEFAULT_REASONS.minSamplesPerCycle.sine}; square: ${DEFAULT_REASONS.minSamplesPerCycle.square}; triangle and sawtooth: ${DEFAULT_REASONS.minSamplesPerCycle.triangle}. A sine must stay above 2 (Nyquist).`,
     `by shape: ${floors}`,
   ),
+  'whole-samples-per-cycle': optionalDerived(
+    z.boolean(),
+    'Plan only tables whose length is a multiple of their cycles (S = N/M whole), so every cycle is sampled at the same phases.',
+    DEFAULT_REASONS.wholeSamplesPerCycle,
+  ),
   jitter: optional(
     z.enum(['forbid', 'allow']),
     '`forbid`: integer dividers only, no divider jitter; `allow`: a fractional divider may be used when no integer one meets the tolerance.',

@@ -78,7 +78,7 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
   } else if (pinned && cmp(s, draft.request.minSamplesPerCycle) < 0) {
     push('samples-per-cycle', planRange('table-length'), `This plan has ${sText} samples per cycle, below min-samples-per-cycle ${ratText(draft.request.minSamplesPerCycle)}: hold fewer cycles or more samples.`);
   }
-  if (draft.request.waveform.shape !== 'sine' && !isInteger(s)) {
+  if (draft.request.wholeSamplesPerCycle && !isInteger(s)) {
     push('samples-per-cycle', pinned ? planRange('table-length') : draft.nameRange, `This ${draft.request.waveform.shape} has ${sText} samples per cycle, not a whole number, so its edges wander from cycle to cycle: ${pinned ? 'make table-length a multiple of cycles' : 'pin a plan whose table length is a multiple of its cycles'}.`);
   }
 

@@ -7,6 +7,7 @@ import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
 import {
   DEFAULT_DUTY,
   DEFAULT_JITTER,
+  DEFAULT_WHOLE_SAMPLES_PER_CYCLE,
   DEFAULT_MIN_SAMPLES_PER_CYCLE,
   DEFAULT_TABLE_SPAN,
   DEFAULT_TOLERANCE,
@@ -97,8 +98,10 @@ export function buildOutput(
 
   // Clipping is decided exactly: 3.3 V full scale holds 1.65 V ± 1.65 V.
   const fullScale = fromNumber(hw.dac.fullScaleV);
-  const amplitude = get('amplitude')?.value ?? fullScale;
-  const offset = get('offset')?.value ?? div(fullScale, rat(2n));
+  // The highest code, 2^bits − 1, sits one LSB below full scale.
+  const codes = 1n << BigInt(hw.dac.bits);
+  const amplitude = get('amplitude')?.value ?? div(mul(fullScale, rat(codes - 1n)), rat(codes));
+  const offset = get('offset')?.value ?? div(amplitude, rat(2n));
   const half = div(amplitude, rat(2n));
   const low = sub(offset, half);
   const high = add(offset, half);
@@ -117,6 +120,7 @@ export function buildOutput(
     waveform: { shape, duty, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset) },
     toleranceHz: toleranceHz(tolerance, targetHz),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
+    wholeSamplesPerCycle: entry['whole-samples-per-cycle'] ?? DEFAULT_WHOLE_SAMPLES_PER_CYCLE[shape],
   };
   if (entry.plan) {
     const pinned = pinPlan(entry.plan, request.jitter, hw, (key) => get('plan', key)?.value, (key) => valueRanges[`plan.${key}`] ?? at('plan'), push);

@@ -46,10 +46,21 @@ describe('the good pair', () => {
     expect(a.outputs.find((o) => o.name === 'marker')!.request.toleranceHz).toEqual(rat(1n, 20n));
   });
 
-  it('amplitude and offset default to the full scale and half of it; duty 25 % is 0.25', () => {
+  it('amplitude defaults to full scale less one LSB (codes 0 … 2^12 − 1), offset to half of it; duty 25 % is 0.25', () => {
     const marker = a.outputs.find((o) => o.name === 'marker')!.request.waveform;
-    expect(marker).toEqual({ shape: 'square', duty: 0.25, amplitudeVpp: 3.3, offsetV: 1.65 });
+    // derived: 3.3 V · 4095/4096 = 3.299194335937… V; half of it 1.649597167968… V.
+    expect(marker).toMatchObject({ shape: 'square', duty: 0.25 });
+    expect(marker.amplitudeVpp).toBeCloseTo((3.3 * 4095) / 4096, 12);
+    expect(marker.offsetV).toBeCloseTo((3.3 * 4095) / 8192, 12);
     expect(a.outputs.find((o) => o.name === 'ramp')!.request.waveform.amplitudeVpp).toBe(3);
+  });
+
+  it('square and sawtooth keep whole samples per cycle by default, a sine does not', () => {
+    const whole = Object.fromEntries(a.outputs.map((o) => [o.name, o.request.wholeSamplesPerCycle]));
+    expect(whole).toEqual({ 'probe-drive': false, marker: true, ramp: true, 'pinned-tone': false });
+    for (const o of a.outputs.filter((x) => x.request.wholeSamplesPerCycle && x.planning.plan)) {
+      expect(o.planning.plan!.tableLength % Number(o.planning.plan!.cycles.num)).toBe(0);
+    }
   });
 
   it('min samples per cycle default by shape (sine 8, square 16, sawtooth 32)', () => {
