@@ -45,7 +45,7 @@ export const clockSchema = z
     ),
     dac: required(
       z.strictObject({
-        bits: required(whole(1, 32), 'Resolution of the DAC in bits; one LSB is full-scale / 2^bits.'),
+        bits: required(whole(1, 31), 'Resolution of the DAC in bits (up to 31, so every code fits a signed 32-bit word); one LSB is full-scale / 2^bits.'),
         'sample-bytes': required(whole(1, 8), 'Bytes one sample takes in RAM (the DMA transfer width), e.g. 2 for a 12-bit DAC.'),
         'full-scale': required(
           quantity({ kind: 'voltage', min: 0, minExclusive: true, max: 1000 }),

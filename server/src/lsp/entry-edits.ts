@@ -1,0 +1,41 @@
+// Minimal text edits inside one output's entry: replace a value where it is written, or add one
+// `key: value` line with the entry's own indentation. Comments and layout elsewhere are untouched.
+
+import type { Position, TextEdit } from 'vscode-languageserver/node';
+import type { TextDocument } from 'vscode-languageserver-textdocument';
+import type { OutputAnalysis } from '../spec/types';
+
+function lineText(doc: TextDocument, line: number): string {
+  return doc.getText({ start: { line, character: 0 }, end: { line: line + 1, character: 0 } }).replace(/\r?\n$/, '');
+}
+
+/** Replaces the written value of `key` with `text`; undefined when the entry has no such key. */
+export function replaceValue(output: OutputAnalysis, key: string, text: string): TextEdit | undefined {
+  const range = output.valueRanges[key];
+  return range ? { range, newText: text } : undefined;
+}
+
+const after = (a: Position, b: Position): boolean => a.line > b.line || (a.line === b.line && a.character > b.character);
+
+/** Adds `key: value` to the entry, as a new line of a block mapping or a new item of a flow mapping. */
+export function addKey(doc: TextDocument, output: OutputAnalysis, key: string, value: string): TextEdit | undefined {
+  const ranges = Object.values(output.valueRanges);
+  if (ranges.length === 0) return undefined;
+  let last = ranges[0].end;
+  for (const r of ranges) if (after(r.end, last)) last = r.end;
+  const first = ranges.reduce((a, r) => (after(a.start, r.start) ? r : a)).start;
+  if (first.line === output.nameRange.start.line) {
+    // `name: { shape: sine, frequency: 1 kHz }` — a flow mapping on the name's line.
+    return { range: { start: last, end: last }, newText: `, ${key}: ${value}` };
+  }
+  // A block value's range can end at column 0 of the next line; that line is not the entry's.
+  if (last.character === 0 && last.line > first.line) last = { line: last.line - 1, character: 0 };
+  const indent = /^\s*/.exec(lineText(doc, first.line))?.[0] ?? '  ';
+  const eol = { line: last.line, character: lineText(doc, last.line).length };
+  return { range: { start: eol, end: eol }, newText: `\n${indent}${key}: ${value}` };
+}
+
+/** Sets `key` to `value`: in place when written, added to the entry otherwise. */
+export function setKey(doc: TextDocument, output: OutputAnalysis, key: string, value: string): TextEdit | undefined {
+  return replaceValue(output, key, value) ?? addKey(doc, output, key, value);
+}

@@ -1,0 +1,67 @@
+// Hover: on an output's name, its plan card with pictures; on a key, what the schema says about
+// it; on a quantity, the same value in other units.
+
+import type { Hover, Position } from 'vscode-languageserver/node';
+import type { TextDocument } from 'vscode-languageserver-textdocument';
+import type { Document } from 'yaml';
+import { lookupKey, type KeyInfo } from '../../../shared-schema/src/keys';
+import type { Analysis } from '../spec/types';
+import { memoryLine, outputCard } from './plan-card';
+import { outputPictures, withPictures } from './pictures';
+import { quantityViews } from './quantity-views';
+import { nodeAt, type NodeAtCursor } from './yaml-path';
+
+/** VS Code drops hover markdown of 100 000 characters or more. */
+export const HOVER_LIMIT = 100_000;
+
+function keyDoc(info: KeyInfo): string {
+  const lines = [`**${info.key}** — ${info.description || 'no description'}`, ''];
+  const facts: string[] = [];
+  if (info.quantity) facts.push(`${info.quantity.what} in ${info.quantity.units.join(', ')}`);
+  else facts.push(info.type);
+  if (info.values) facts.push(`one of ${info.values.map((v) => `\`${v}\``).join(', ')}`);
+  if (info.min !== undefined || info.max !== undefined) facts.push(`from ${info.min ?? '…'} to ${info.max ?? '…'}`);
+  facts.push(info.required ? 'required' : info.default !== undefined ? `default: ${info.default}` : 'optional');
+  lines.push(facts.join(' · '));
+  return lines.join('\n');
+}
+
+function outputHover(analysis: Analysis, name: string, pictures: boolean): string | undefined {
+  const output = analysis.outputs.find((o) => o.name === name);
+  if (!output) return undefined;
+  let text = outputCard(output);
+  const memory = memoryLine(analysis);
+  if (memory) text += `\n\n${memory}`;
+  const dac = analysis.hardware?.dac;
+  return pictures && dac ? withPictures(text, outputPictures(output, dac), HOVER_LIMIT) : text;
+}
+
+function valueHover(analysis: Analysis, at: NodeAtCursor): string | undefined {
+  const info = lookupKey(analysis.kind, at.path);
+  if (!info?.quantity) return undefined;
+  const output = at.path[0] === 'outputs' ? analysis.outputs.find((o) => o.name === at.path[1]) : undefined;
+  const toleranceHz = at.path[2] === 'tolerance' ? output?.request.toleranceHz : undefined;
+  const views = quantityViews(info.quantity.kind, at.source, { hardware: analysis.hardware, toleranceHz });
+  const written = at.source.trim();
+  const others = views?.filter((v) => v !== written);
+  return others && others.length > 0 ? `\`${written}\` = ${others.join(' = ')}` : undefined;
+}
+
+export function hover(doc: TextDocument, tree: Document, analysis: Analysis, position: Position, pictures: boolean): Hover | null {
+  const at = nodeAt(tree, doc.getText(), doc.offsetAt(position));
+  if (!at) return null;
+  let markdown: string | undefined;
+  if (at.role === 'key' && analysis.kind === 'wave' && at.path.length === 2 && at.path[0] === 'outputs') {
+    markdown = outputHover(analysis, String(at.path[1]), pictures);
+  } else if (at.role === 'key') {
+    const info = lookupKey(analysis.kind, at.path);
+    markdown = info && keyDoc(info);
+  } else {
+    markdown = valueHover(analysis, at);
+  }
+  if (!markdown) return null;
+  return {
+    contents: { kind: 'markdown', value: markdown },
+    range: { start: doc.positionAt(at.start), end: doc.positionAt(at.end) },
+  };
+}

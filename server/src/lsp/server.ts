@@ -1,0 +1,254 @@
+// Wiring only: the connection, the capabilities, and one handler per feature module.
+// `waveplan serve --stdio` calls startServer(); createConnection() reads --stdio from argv.
+// Nothing here writes to stdout: logs go to connection.console.
+
+import {
+  CodeActionKind,
+  createConnection,
+  DidChangeWatchedFilesNotification,
+  FileChangeType,
+  ProposedFeatures,
+  TextDocumentSyncKind,
+  type InitializeParams,
+  type InitializeResult,
+  type WorkspaceFolder,
+} from 'vscode-languageserver/node';
+import { analyze } from '../spec/analyze';
+import { codeActions } from './code-actions';
+import { COMMANDS, PLAN_REPORT, planReport, RECHECK_WORKSPACE, recheckWorkspace } from './commands';
+import { completions } from './completion';
+import { clockDefinition } from './definition';
+import { Dependencies, findSpecFiles } from './dependencies';
+import { DiagnosticsPublisher } from './diagnostics';
+import { SpecDocuments, isSpecPath, uriToPath } from './documents';
+import { hover } from './hover';
+import { inlayHints } from './inlay-hints';
+import { guard, guardNotification, yieldToEvents } from './safe';
+import { SettingsCache } from './settings';
+import { clockSymbols, waveSymbols } from './symbols';
+import { SyntaxTrees } from './yaml-path';
+
+/** Wave specs analysed at startup between two yields to the event loop. */
+const SCAN_SLICE = 20;
+
+export function startServer(): void {
+  const connection = createConnection(ProposedFeatures.all);
+  const log = connection.console;
+  const docs = new SpecDocuments(analyze);
+  const trees = new SyntaxTrees();
+  const settings = new SettingsCache(connection);
+  const publisher = new DiagnosticsPublisher(connection, docs);
+  const deps = new Dependencies(docs, publisher);
+  publisher.onAnalysed = (analysis) => deps.record(analysis);
+
+  let folders: string[] = [];
+  let canWatchFiles = false;
+  let canRefreshHints = false;
+  let canCreateProgress = false;
+  let canFollowFolders = false;
+
+  connection.onInitialize((params: InitializeParams): InitializeResult => {
+    const caps = params.capabilities;
+    settings.setPullSupported(!!caps.workspace?.configuration);
+    canWatchFiles = !!caps.workspace?.didChangeWatchedFiles?.dynamicRegistration;
+    canRefreshHints = !!caps.workspace?.inlayHint?.refreshSupport;
+    canCreateProgress = !!caps.window?.workDoneProgress;
+    canFollowFolders = !!caps.workspace?.workspaceFolders;
+    folders = (params.workspaceFolders ?? []).map((f: WorkspaceFolder) => uriToPath(f.uri));
+    if (folders.length === 0 && params.rootUri) folders = [uriToPath(params.rootUri)];
+    return {
+      capabilities: {
+        textDocumentSync: TextDocumentSyncKind.Incremental,
+        hoverProvider: true,
+        inlayHintProvider: { resolveProvider: false },
+        codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix] },
+        completionProvider: { triggerCharacters: [' ', ':'] },
+        documentSymbolProvider: true,
+        definitionProvider: true,
+        executeCommandProvider: { commands: COMMANDS },
+        workspace: { workspaceFolders: { supported: true, changeNotifications: true } },
+      },
+      serverInfo: { name: 'waveplan' },
+    };
+  });
+
+  connection.onInitialized(
+    guardNotification(log, 'initialized', async () => {
+      // The library refuses this handler before it knows the client sends folder changes.
+      if (canFollowFolders) {
+        connection.workspace.onDidChangeWorkspaceFolders(
+          guardNotification(log, 'workspace folders', (event) => {
+            const removed = new Set(event.removed.map((f) => uriToPath(f.uri)));
+            folders = [...folders.filter((f) => !removed.has(f)), ...event.added.map((f) => uriToPath(f.uri))];
+          }),
+        );
+      }
+      // Learn which wave specs read which clock file, so a clock edit reaches closed specs too.
+      // A small workspace is read before any later message is handled; a large one in slices.
+      const waves = findSpecFiles(folders).filter((p) => p.endsWith('.wave.yaml'));
+      for (const [index, path] of waves.entries()) {
+        if (index > 0 && index % SCAN_SLICE === 0) await yieldToEvents();
+        if (docs.isOpen(path)) continue;
+        const analysis = docs.analyzeClosed(path);
+        if (analysis) deps.record(analysis);
+      }
+      if (canWatchFiles) {
+        await connection.client.register(DidChangeWatchedFilesNotification.type, {
+          watchers: [{ globPattern: '**/*.{wave,clock}.yaml' }],
+        });
+      }
+    }),
+  );
+
+  const refreshViews = (): void => {
+    if (canRefreshHints) void connection.languages.inlayHint.refresh().catch(() => undefined);
+  };
+
+  /** A spec's text changed (buffer or disk): re-check it and everything that reads it. */
+  const specChanged = async (uri: string): Promise<void> => {
+    const path = uriToPath(uri);
+    if (docs.get(uri)) publisher.schedule(uri);
+    if (path.endsWith('.clock.yaml')) {
+      await deps.recheckReaders(path);
+      refreshViews();
+    }
+  };
+
+  docs.documents.onDidOpen((e) => void specChanged(e.document.uri).catch((err) => log.error(String(err))));
+  docs.documents.onDidChangeContent((e) => void specChanged(e.document.uri).catch((err) => log.error(String(err))));
+  docs.documents.onDidClose(
+    guardNotification(log, 'close', async (e) => {
+      const path = uriToPath(e.document.uri);
+      trees.forget(e.document.uri);
+      settings.forget(e.document.uri);
+      // Closed: the disk text counts again, for the file itself and for what reads it.
+      if (isSpecPath(path) && !publisher.publishClosed(path)) publisher.clear(e.document.uri);
+      if (path.endsWith('.clock.yaml')) await deps.recheckReaders(path);
+    }),
+  );
+
+  connection.onDidChangeWatchedFiles(
+    guardNotification(log, 'watched files', async (params) => {
+      for (const change of params.changes) {
+        const path = uriToPath(change.uri);
+        if (docs.isOpen(path)) continue; // the buffer is what counts while open
+        if (change.type === FileChangeType.Deleted) {
+          deps.forget(path);
+          publisher.clear(change.uri);
+        } else if (path.endsWith('.wave.yaml')) {
+          publisher.publishClosed(path);
+        }
+        if (path.endsWith('.clock.yaml')) {
+          if (change.type !== FileChangeType.Deleted) publisher.publishClosed(path);
+          await deps.recheckReaders(path);
+        }
+      }
+      refreshViews();
+    }),
+  );
+
+  connection.onDidChangeConfiguration(
+    guardNotification(log, 'configuration', () => {
+      settings.clear();
+      refreshViews();
+    }),
+  );
+
+  connection.languages.inlayHint.on(
+    guard(log, 'inlay hints', [], async (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      if (!doc || !(await settings.get(doc.uri)).annotationsEnabled) return [];
+      const analysis = docs.analysisOf(doc.uri);
+      return analysis ? inlayHints(doc, analysis, params.range) : [];
+    }),
+  );
+
+  connection.onHover(
+    guard(log, 'hover', null, async (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      const analysis = doc && docs.analysisOf(doc.uri);
+      if (!doc || !analysis) return null;
+      const { hoverPictures } = await settings.get(doc.uri);
+      return hover(doc, trees.of(doc), analysis, params.position, hoverPictures);
+    }),
+  );
+
+  connection.onCodeAction(
+    guard(log, 'code actions', [], (params, token) => {
+      const doc = docs.get(params.textDocument.uri);
+      const analysis = doc && docs.analysisOf(doc.uri);
+      if (!doc || !analysis) return [];
+      return codeActions(doc, analysis, params.context.diagnostics, token);
+    }),
+  );
+
+  connection.onCompletion(
+    guard(log, 'completion', [], (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      return doc ? completions(doc, params.position) : [];
+    }),
+  );
+
+  connection.onDocumentSymbol(
+    guard(log, 'symbols', [], (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      const analysis = doc && docs.analysisOf(doc.uri);
+      if (!doc || !analysis) return [];
+      return analysis.kind === 'wave' ? waveSymbols(analysis) : clockSymbols(doc, trees.of(doc));
+    }),
+  );
+
+  connection.onDefinition(
+    guard(log, 'definition', [], (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      const analysis = doc && docs.analysisOf(doc.uri);
+      if (!doc || !analysis) return [];
+      return clockDefinition(doc, trees.of(doc), analysis, doc.offsetAt(params.position), (p) => docs.uriOfPath(p));
+    }),
+  );
+
+  connection.onExecuteCommand(
+    guard(log, 'command', null, async (params, token) => {
+      if (params.command === RECHECK_WORKSPACE) {
+        const progress = canCreateProgress ? await connection.window.createWorkDoneProgress() : undefined;
+        return recheckWorkspace(
+          folders,
+          {
+            recheck: (path) => {
+              const uri = docs.uriOfPath(path);
+              if (!docs.get(uri)) return publisher.publishClosed(path);
+              docs.invalidate(uri);
+              publisher.publishOpen(uri);
+              return docs.analysisOf(uri);
+            },
+          },
+          progress,
+          token,
+        );
+      }
+      if (params.command === PLAN_REPORT) {
+        const uri = typeof params.arguments?.[0] === 'string' ? params.arguments[0] : undefined;
+        if (!uri) throw new Error('waveplan.planReport needs the URI of a spec as its argument');
+        const analysis = docs.get(uri) ? docs.analysisOf(uri) : docs.analyzeClosed(uriToPath(uri));
+        if (!analysis) throw new Error(`cannot read ${uri}`);
+        return planReport(analysis, uriToPath(uri).split(/[\\/]/).pop() ?? uri);
+      }
+      throw new Error(`unknown command ${params.command}`);
+    }),
+  );
+
+  // For the benchmark and for bug reports: how much memory the server holds right now.
+  connection.onRequest(
+    'waveplan/serverStats',
+    guard(log, 'server stats', null, () => {
+      const m = process.memoryUsage();
+      return { rssBytes: m.rss, heapUsedBytes: m.heapUsed, heapTotalBytes: m.heapTotal, externalBytes: m.external, openDocuments: docs.documents.keys().length };
+    }),
+  );
+
+  docs.documents.listen(connection);
+  connection.listen();
+  // A stray exception in a timer must not take the server down with it.
+  process.on('uncaughtException', (error) => log.error(`waveplan: unexpected error: ${error.stack ?? error}`));
+  process.on('unhandledRejection', (reason) => log.error(`waveplan: unexpected rejection: ${String(reason)}`));
+}
