@@ -9,8 +9,10 @@ import {
   type LanguageClientOptions,
   type ServerOptions,
 } from 'vscode-languageclient/node';
+import { registerExport } from './export';
 import { registerPlanReport } from './plan-report';
 import { registerRecheckFallback } from './recheck';
+import { registerReportView } from './report-view';
 import { OutOfToleranceStatus } from './status';
 
 /** The file kinds the server understands; it tells them apart by file name. */
@@ -59,7 +61,8 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
 
   client = new LanguageClient('waveplan', 'waveplan language server', serverOptions, clientOptions);
   const started = client;
-  context.subscriptions.push(registerPlanReport(() => (started.isRunning() ? started : undefined)));
+  const running = (): LanguageClient | undefined => (started.isRunning() ? started : undefined);
+  context.subscriptions.push(registerPlanReport(running), registerExport(running), registerReportView(running));
 
   try {
     await started.start();

@@ -46,7 +46,7 @@ describe('language server over stdio', () => {
         hoverProvider: true,
         documentSymbolProvider: true,
         definitionProvider: true,
-        executeCommandProvider: { commands: ['waveplan.recheckWorkspace', 'waveplan.planReport'] },
+        executeCommandProvider: { commands: ['waveplan.recheckWorkspace', 'waveplan.planReport', 'waveplan.exportC', 'waveplan.htmlReport'] },
       });
       expect(result.capabilities.inlayHintProvider).toBeTruthy();
       expect(result.capabilities.codeActionProvider).toMatchObject({ codeActionKinds: ['quickfix'] });

@@ -65,15 +65,23 @@ export function loadSpecs(inputs: readonly string[], cwd: string): LoadedSpec[] 
     if (text === undefined) throw new CliInputError(`cannot read ${shownPath(file, cwd)}`);
     const analysis = analyze(file, text, host);
     const clockText = analysis.clockPath ? host.readFile(analysis.clockPath) : undefined;
-    return {
-      file,
-      path: shownPath(file, cwd),
-      clockPath: analysis.clockPath ? shownPath(analysis.clockPath, cwd) : null,
-      analysis,
-      contentHash: contentHash(text, clockText),
-      errors: analysis.diagnostics.filter((d) => d.severity === 'error'),
-    };
+    return describeSpec(file, text, analysis, clockText, cwd);
   });
+}
+
+/**
+ * A LoadedSpec from an analysis made elsewhere (the language server analyses editor buffers);
+ * `text` and `clockText` must be the texts that analysis read.
+ */
+export function describeSpec(file: string, text: string, analysis: Analysis, clockText: string | undefined, cwd: string): LoadedSpec {
+  return {
+    file,
+    path: shownPath(file, cwd),
+    clockPath: analysis.clockPath ? shownPath(analysis.clockPath, cwd) : null,
+    analysis,
+    contentHash: contentHash(text, clockText),
+    errors: analysis.diagnostics.filter((d) => d.severity === 'error'),
+  };
 }
 
 /** `path:line:col: severity code message`, 1-based, as the checker prints findings. */

@@ -14,7 +14,7 @@ import { diagnosticLine, loadSpecs, type LoadedSpec } from './load';
 import { exportModel } from './model';
 import { guarded, processIo, type CommandIo } from './io';
 
-function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['ids']; problems: SpecDiagnostic[] } {
+export function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['ids']; problems: SpecDiagnostic[] } {
   const problems: SpecDiagnostic[] = [];
   const hw = spec.analysis.hardware;
   if (hw && sampleType(hw.dac.sampleBytes) === null)
@@ -36,7 +36,7 @@ function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['
   return { ids, problems: problems.concat(diagnostics) };
 }
 
-function writeAll(files: ReadonlyArray<{ file: string; text: string }>): void {
+export function writeAll(files: ReadonlyArray<{ file: string; text: string }>): void {
   for (const { file, text } of files) {
     try {
       fs.mkdirSync(path.dirname(file), { recursive: true });

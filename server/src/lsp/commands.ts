@@ -1,16 +1,18 @@
 // workspace/executeCommand: re-check every spec in the workspace folders (with progress), and
-// the plan report of one file as markdown for the client to show.
+// the plan report of one file as markdown for the client to show (C export and the HTML report:
+// export-commands.ts).
 
 import type { CancellationToken, WorkDoneProgressServerReporter } from 'vscode-languageserver/node';
 import type { Analysis } from '../spec/types';
 import { findSpecFiles } from './dependencies';
+import { EXPORT_C, HTML_REPORT } from './export-commands';
 import { memoryLine, outputCard } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { checkCancelled, yieldToEvents } from './safe';
 
 export const RECHECK_WORKSPACE = 'waveplan.recheckWorkspace';
 export const PLAN_REPORT = 'waveplan.planReport';
-export const COMMANDS = [RECHECK_WORKSPACE, PLAN_REPORT];
+export const COMMANDS = [RECHECK_WORKSPACE, PLAN_REPORT, EXPORT_C, HTML_REPORT];
 
 /** The report is a markdown preview, not a hover: it may be longer, but stays bounded. */
 const REPORT_LIMIT = 2_000_000;

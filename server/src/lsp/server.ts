@@ -4,6 +4,7 @@
 
 import {
   CodeActionKind,
+  CodeLensRefreshRequest,
   createConnection,
   DidChangeWatchedFilesNotification,
   FileChangeType,
@@ -15,12 +16,14 @@ import {
 } from 'vscode-languageserver/node';
 import { analyze } from '../spec/analyze';
 import { codeActions } from './code-actions';
+import { codeLenses } from './code-lens';
 import { COMMANDS, PLAN_REPORT, planReport, RECHECK_WORKSPACE, recheckWorkspace } from './commands';
 import { completions } from './completion';
 import { clockDefinition } from './definition';
 import { Dependencies, findSpecFiles } from './dependencies';
 import { DiagnosticsPublisher } from './diagnostics';
 import { SpecDocuments, isSpecPath, uriToPath } from './documents';
+import { bufferReader, EXPORT_C, exportC, HTML_REPORT, htmlReport } from './export-commands';
 import { hover } from './hover';
 import { inlayHints } from './inlay-hints';
 import { guard, guardNotification, yieldToEvents } from './safe';
@@ -44,6 +47,7 @@ export function startServer(): void {
   let folders: string[] = [];
   let canWatchFiles = false;
   let canRefreshHints = false;
+  let canRefreshLenses = false;
   let canCreateProgress = false;
   let canFollowFolders = false;
 
@@ -52,6 +56,7 @@ export function startServer(): void {
     settings.setPullSupported(!!caps.workspace?.configuration);
     canWatchFiles = !!caps.workspace?.didChangeWatchedFiles?.dynamicRegistration;
     canRefreshHints = !!caps.workspace?.inlayHint?.refreshSupport;
+    canRefreshLenses = !!caps.workspace?.codeLens?.refreshSupport;
     canCreateProgress = !!caps.window?.workDoneProgress;
     canFollowFolders = !!caps.workspace?.workspaceFolders;
     folders = (params.workspaceFolders ?? []).map((f: WorkspaceFolder) => uriToPath(f.uri));
@@ -62,6 +67,7 @@ export function startServer(): void {
         hoverProvider: true,
         inlayHintProvider: { resolveProvider: false },
         codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix] },
+        codeLensProvider: { resolveProvider: false },
         completionProvider: { triggerCharacters: [' ', ':'] },
         documentSymbolProvider: true,
         definitionProvider: true,
@@ -151,6 +157,8 @@ export function startServer(): void {
     guardNotification(log, 'configuration', () => {
       settings.clear();
       refreshViews();
+      // The export lens names the folder from the settings.
+      if (canRefreshLenses) void connection.sendRequest(CodeLensRefreshRequest.type).catch(() => undefined);
     }),
   );
 
@@ -179,6 +187,14 @@ export function startServer(): void {
       const analysis = doc && docs.analysisOf(doc.uri);
       if (!doc || !analysis) return [];
       return codeActions(doc, analysis, params.context.diagnostics, token);
+    }),
+  );
+
+  connection.onCodeLens(
+    guard(log, 'code lens', [], async (params) => {
+      const doc = docs.get(params.textDocument.uri);
+      if (!doc) return [];
+      return codeLenses(doc, trees.of(doc), (await settings.get(doc.uri)).exportDirectory);
     }),
   );
 
@@ -233,6 +249,13 @@ export function startServer(): void {
         if (!analysis) throw new Error(`cannot read ${uri}`);
         return planReport(analysis, uriToPath(uri).split(/[\\/]/).pop() ?? uri);
       }
+      if (params.command === EXPORT_C) {
+        const uri = params.arguments?.[0];
+        // A bad argument is answered by exportC before the folder matters.
+        const directory = typeof uri === 'string' ? (await settings.get(uri)).exportDirectory : '';
+        return exportC(uri, directory, bufferReader(docs), folders);
+      }
+      if (params.command === HTML_REPORT) return htmlReport(params.arguments?.[0], bufferReader(docs), folders);
       throw new Error(`unknown command ${params.command}`);
     }),
   );

@@ -1,0 +1,114 @@
+// workspace/executeCommand for firmware export and the HTML plan report of one wave spec, as the
+// editor sees it: open buffers (saved or not) count for the spec and its clock file, the disk for
+// the rest. The files and the page come from server/src/export — the same code as
+// `waveplan export --c` and `waveplan report --html` — so editor and CLI write the same bytes.
+
+import * as path from 'node:path';
+import { CliInputError } from '../cli/disk';
+import { cFiles } from '../export/c-export';
+import { reportHtml } from '../export/html-report';
+import { describeSpec, diagnosticLine, type LoadedSpec } from '../export/load';
+import { exportModel } from '../export/model';
+import { exportProblems, writeAll } from '../export/run-export';
+import { analyze } from '../spec/analyze';
+import type { SpecHost } from '../spec/types';
+import { readDisk, uriToPath, type SpecDocuments } from './documents';
+
+export const EXPORT_C = 'waveplan.exportC';
+export const HTML_REPORT = 'waveplan.htmlReport';
+
+export type ExportCAnswer = { written: string[] } | { error: string };
+export type HtmlReportAnswer = { html: string } | { error: string };
+
+/** Text of a file as the editor sees it. */
+export type ReadText = (file: string) => string | undefined;
+
+export function bufferReader(docs: SpecDocuments): ReadText {
+  return (file) => {
+    const open = docs.get(docs.uriOfPath(file));
+    return open ? open.getText() : readDisk(file);
+  };
+}
+
+/**
+ * Paths in generated files are relative to the repository root; outside a repository the CLI
+ * falls back to its working folder, which in the editor is the workspace folder holding the spec.
+ */
+function baseFolder(file: string, folders: readonly string[]): string {
+  const holding = folders
+    .filter((f) => file === f || file.startsWith(f.endsWith(path.sep) ? f : f + path.sep))
+    .sort((a, b) => b.length - a.length);
+  return holding[0] ?? path.dirname(file);
+}
+
+/** The wave spec behind a command argument, or the reason there is none. */
+function specFile(argument: unknown): string | { error: string } {
+  if (typeof argument !== 'string' || argument === '') return { error: 'the command needs the URI of a wave spec as its argument' };
+  if (!argument.startsWith('file:')) return { error: `${argument} is not a file on disk; save it as a *.wave.yaml file first` };
+  const file = uriToPath(argument);
+  if (!file.endsWith('.wave.yaml')) return { error: `${path.basename(file)} is not a wave spec (*.wave.yaml); its outputs are in the wave specs that use it` };
+  return file;
+}
+
+/**
+ * Analyses the spec afresh, reading each file once, so the hash written into the files is of
+ * exactly the texts the plans came from.
+ */
+function loadFromEditor(file: string, read: ReadText, folders: readonly string[]): LoadedSpec | { error: string } {
+  const seen = new Map<string, string | undefined>();
+  const host: SpecHost = {
+    readFile: (p) => {
+      if (!seen.has(p)) seen.set(p, read(p));
+      return seen.get(p);
+    },
+  };
+  const text = host.readFile(file);
+  if (text === undefined) return { error: `cannot read ${file}` };
+  const analysis = analyze(file, text, host);
+  const clockText = analysis.clockPath ? host.readFile(analysis.clockPath) : undefined;
+  return describeSpec(file, text, analysis, clockText, baseFolder(file, folders));
+}
+
+function plural(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? '' : 's'}`;
+}
+
+/**
+ * Writes <prefix>.h and <prefix>.c into `directory` (relative to the spec's folder), or nothing
+ * at all when the spec has errors or its outputs cannot become C: the editor has no --force.
+ */
+export function exportC(argument: unknown, directory: string, read: ReadText, folders: readonly string[]): ExportCAnswer {
+  const file = specFile(argument);
+  if (typeof file !== 'string') return file;
+  const spec = loadFromEditor(file, read, folders);
+  if ('error' in spec) return spec;
+  const { ids, problems } = exportProblems(spec, true);
+  const findings = [...spec.errors, ...problems];
+  if (findings.length > 0) {
+    return {
+      error: `nothing exported: ${spec.path} has ${plural(findings.length, 'error')}; fix them first. First: ${diagnosticLine(spec, findings[0])}`,
+    };
+  }
+  const model = exportModel(spec);
+  if (!model) return { error: `nothing exported: no hardware could be read from the clock file of ${spec.path}` };
+  const target = path.resolve(path.dirname(file), directory);
+  const writes = cFiles(spec, model, ids!, false).map((f) => ({ file: path.join(target, f.name), text: f.text }));
+  const inputs = new Set([file, spec.analysis.clockPath ?? '']);
+  const clash = writes.find((w) => inputs.has(w.file));
+  if (clash) return { error: `nothing exported: refusing to overwrite a spec file: ${clash.file}` };
+  try {
+    writeAll(writes);
+  } catch (e) {
+    return { error: e instanceof CliInputError ? e.message : `export failed: ${String(e)}` };
+  }
+  return { written: writes.map((w) => w.file) };
+}
+
+/** The self-contained report page of one wave spec; written even when the spec has errors (it shows them). */
+export function htmlReport(argument: unknown, read: ReadText, folders: readonly string[]): HtmlReportAnswer {
+  const file = specFile(argument);
+  if (typeof file !== 'string') return file;
+  const spec = loadFromEditor(file, read, folders);
+  if ('error' in spec) return spec;
+  return { html: reportHtml([spec]) };
+}
