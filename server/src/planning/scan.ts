@@ -9,6 +9,7 @@
 import { fareyFloat, FloatNeighbours } from './farey';
 import { type Domain, maxCycles } from './domain';
 import type { Leader } from './rank';
+import { quietestMultiple } from './exact';
 
 const out = new FloatNeighbours();
 
@@ -118,31 +119,9 @@ export class ScanN {
     const k0 = Math.max(1, Math.ceil(d.jMin / j));
     const k1 = Math.min(Math.floor(d.jMax / j), Math.floor(top / m));
     if (k0 > k1) return false;
-    const k = d.mode === 'fractional' ? this.quietestMultiple(j, k0, k1) : k0;
+    const k = d.mode === 'fractional' ? quietestMultiple(d.scale, j, k0, k1) : k0;
     this.lead.offer(k * j, n, k * m, errF);
     return true;
-  }
-
-  /**
-   * Every multiple k·j gives the same f_out; fractional plans prefer the smallest p(1−p) of
-   * F = k·j mod 2^k, then the smallest k (larger S). Residues repeat with period 2^k/gcd(j, 2^k).
-   */
-  private quietestMultiple(j: number, k0: number, k1: number): number {
-    const scale = this.d.scale;
-    let period = scale;
-    while (period > 1 && j % (scale / period * 2) === 0) period /= 2;
-    let best = k0;
-    let bestTerm = Infinity;
-    for (let k = k0; k <= Math.min(k1, k0 + period - 1); k++) {
-      const f = (k * j) % scale;
-      const term = f * (scale - f);
-      if (term < bestTerm) {
-        best = k;
-        bestTerm = term;
-        if (term === 0) break;
-      }
-    }
-    return best;
   }
 
   /** Plain scan of every J (or every M, whichever is fewer) for table length N. */

@@ -1,20 +1,40 @@
 // The true optimum plan of one output: minimal |f_out − f_target| exactly, ties broken as
-// rank.ts documents. The search walks the smaller of the two dimensions (dividers J or table
-// lengths N) over the span where a plan can still matter, and asks the Farey kernel for the best
-// partner of each value (scan.ts). Doubles carry the walk; near-ties are settled exactly.
+// rank.ts documents. Three exact methods, cheapest first:
+//   1. exact plans by number theory (exact.ts), which settle every target the hardware can hit;
+//   2. the walk: over the smaller of the two dimensions (dividers J or table lengths N) within
+//      the span where a plan can still matter, the Farey kernel names the best partner of each
+//      value (scan.ts) — cheap when that span is short (high targets);
+//   3. the best-first search over cycles and products (cycles.ts) when both spans are long (low
+//      targets); it hands back to the walk if its pairs run over a share of the walk's cost.
+// Doubles carry the searches; near-ties are settled exactly.
 
 import { type Rational, rat, sub } from '../../../shared-schema/src/rational';
 import { fareyNeighbours } from './farey';
 import { type Domain, jitterFreeDomain, fractionalDomain, achievedHz } from './domain';
 import { type Candidate, Leader } from './rank';
 import { type Cap, ScanJ, ScanN } from './scan';
+import { offerExactPlans } from './exact';
+import { searchByCycles } from './cycles';
 import type { Hardware, Plan, PlanRequest } from './types';
 
 /** The best plan with an integer divider (F = 0): no divider jitter. Null when none exists. */
 export function nearestJitterFree(hw: Hardware, req: PlanRequest): Plan | null {
+  return nearestJitterFreeBy(hw, req, 'auto');
+}
+
+/**
+ * How `solve` looks for an optimum. 'auto' is the planner; 'walk' is the walk alone (no exact
+ * pre-pass, no cycles search) and 'cycles' runs the cycles search without limits (the walk only
+ * where it declines: products or table lengths beyond its reach): two independent methods, for
+ * tests that check one against the other and for the benchmark.
+ */
+export type Strategy = 'auto' | 'walk' | 'cycles';
+
+/** nearestJitterFree with a chosen strategy. */
+export function nearestJitterFreeBy(hw: Hardware, req: PlanRequest, strategy: Strategy): Plan | null {
   const d = jitterFreeDomain(hw, req);
   if (d === null) return null;
-  const c = solve(d, null);
+  const c = solve(d, null, strategy);
   return c === null ? null : toPlan(hw, d, c);
 }
 
@@ -24,15 +44,20 @@ export function nearestJitterFree(hw: Hardware, req: PlanRequest): Plan | null {
  * remaining keys agree), so the wider search runs only when the integer divider misses.
  */
 export function bestFractional(hw: Hardware, req: PlanRequest): Plan | null {
+  return bestFractionalBy(hw, req, 'auto');
+}
+
+/** bestFractional with a chosen strategy. */
+export function bestFractionalBy(hw: Hardware, req: PlanRequest, strategy: Strategy): Plan | null {
   const whole = jitterFreeDomain(hw, req);
-  const wholeBest = whole === null ? null : solve(whole, null);
+  const wholeBest = whole === null ? null : solve(whole, null, strategy);
   if (hw.divider.fractionBits === 0 || (wholeBest !== null && sub(achieved(whole!, wholeBest), req.targetHz).num === 0n)) {
     return wholeBest === null ? null : toPlan(hw, whole!, wholeBest);
   }
   const d = fractionalDomain(hw, req);
   if (d === null) return null;
   const seed = wholeBest === null ? null : { ...wholeBest, j: wholeBest.j * d.scale };
-  const c = solve(d, seed);
+  const c = solve(d, seed, strategy);
   return c === null ? null : toPlan(hw, d, c);
 }
 
@@ -56,10 +81,21 @@ function toPlan(hw: Hardware, d: Domain, c: Candidate): Plan {
 /** Relative margin on the float bounds of the walked span, so exact ties at its edge stay in. */
 const EDGE = 1e-9;
 
+/**
+ * Walks longer than this try the cycles search first. Rough costs on the full domain (bench/plan.ts):
+ * a walk step (one Farey call) ~0.3 µs, the cycles set-up ~0.02–0.05 µs per M, a ranked value
+ * ~1–10 µs (a factorisation). The limits keep a cycles search that goes badly within a share of
+ * the walk it replaces; its memory grows with M, hence the fixed cap.
+ */
+const CYCLES_FROM = 64;
+const CYCLES_MAX = 1 << 18;
+
 /** The exact best candidate of a domain, starting from an optional known plan. */
-export function solve(d: Domain, seed: Candidate | null): Candidate | null {
+export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'auto'): Candidate | null {
   const lead = new Leader(d);
   if (seed !== null) lead.offer(seed.j, seed.n, seed.m);
+  // Error 0 cannot be beaten, and the exact plans are ranked without a scan.
+  if (strategy !== 'walk' && offerExactPlans(d, lead)) return lead.result();
   const byJ = new ScanJ(d, lead, capOf(d));
   const byN = new ScanN(d, lead);
   const C = d.clockF;
@@ -82,6 +118,14 @@ export function solve(d: Domain, seed: Candidate | null): Candidate | null {
   let j1 = jHigh(lead.errF);
   const lengths = d.powerOfTwo ? d.lengths.filter((n) => n >= nLow) : null;
   const countN = lengths !== null ? lengths.length : d.nMax - nLow + 1;
+  const walk = Math.min(j1 - j0 + 1, countN);
+  const limits =
+    strategy === 'cycles'
+      ? { maxCycles: Infinity, maxPairs: Infinity }
+      : strategy === 'auto' && walk > CYCLES_FROM
+        ? { maxCycles: Math.min(16 * walk, CYCLES_MAX), maxPairs: walk / 16 }
+        : null;
+  if (limits !== null && searchByCycles(d, lead, limits)) return lead.result();
 
   if (j1 - j0 + 1 <= countN) {
     // Ascending J: once the leader is exact (and jitter-free in fractional mode) at a J already
