@@ -7,7 +7,7 @@
 import {
   type Rational, rat, add, sub, mul, div, abs, cmp, floor, ceil,
 } from '../../shared-schema/src/rational';
-import type { Hardware, PlanRequest } from '../../server/src/planning/types';
+import type { Hardware, Plan, PlanRequest } from '../../server/src/planning/types';
 
 export interface OraclePlan {
   dividerInteger: number;
@@ -101,4 +101,14 @@ export function exhaustivePlan(hw: Hardware, req: PlanRequest, fractional: boole
   if (best === null) return null;
   const { dividerInteger, dividerFraction, tableLength, cycles, achievedHz, errorHz } = best;
   return { dividerInteger, dividerFraction, tableLength, cycles, achievedHz, errorHz };
+}
+
+/**
+ * Divider, table, cycles and achieved frequency in one string: for one target, equal strings are
+ * equal plans with equal exact errors. Compares the planner's plans with the oracle's.
+ */
+export function planKey(p: Plan | OraclePlan | null): string {
+  if (p === null) return 'none';
+  const cycles = typeof p.cycles === 'number' ? rat(p.cycles) : p.cycles;
+  return `I=${p.dividerInteger} F=${p.dividerFraction} N=${p.tableLength} M=${cycles.num}/${cycles.den} f=${p.achievedHz.num}/${p.achievedHz.den}`;
 }

@@ -9,7 +9,7 @@ import { bestFractionalBy, nearestJitterFreeBy, type Strategy } from '../../../s
 import { divisorsInRange, primesUpTo } from '../../../server/src/planning/divisors';
 import { ProductHeap } from '../../../server/src/planning/heap';
 import type { Hardware, Plan, PlanRequest } from '../../../server/src/planning/types';
-import { exhaustivePlan, type OraclePlan } from '../../support/exhaustive';
+import { exhaustivePlan, planKey } from '../../support/exhaustive';
 import { seededRandom } from '../../support/seeded';
 
 interface Case {
@@ -51,13 +51,6 @@ function lowTargetCase(rnd: () => number, index: number, size: number): Case {
         : mul(lowest, rat(int(1_000, 400_000), int(100, 1_000)));
   const minSamplesPerCycle = pick([rat(1), rat(2), rat(5, 2), rat(4), rat(7, 3)]);
   return { hw, req: { targetHz, minSamplesPerCycle }, label: `#${index} ${kind}` };
-}
-
-/** Divider, table, cycles and achieved frequency in one string: equal strings, equal plans. */
-function planKey(p: Plan | OraclePlan | null): string {
-  if (p === null) return 'none';
-  const cycles = typeof p.cycles === 'number' ? rat(p.cycles) : p.cycles;
-  return `I=${p.dividerInteger} F=${p.dividerFraction} N=${p.tableLength} M=${cycles.num}/${cycles.den} f=${p.achievedHz.num}/${p.achievedHz.den}`;
 }
 
 describe('cycles search = exhaustive search (oracle: test/support/exhaustive.ts, plain brute force)', () => {
