@@ -33,6 +33,10 @@ fi
 [[ -x /usr/bin/chromium ]] || { log "/usr/bin/chromium not found after install"; exit 1; }
 
 # --- the tools folder ------------------------------------------------------------------------
+# Run through `npm run`, this script inherits npm's settings as npm_config_* variables; the nested
+# installs below would take them as their own (the user agent, for one, names the outer npm's
+# Node 20, and the editor's install refuses anything but Node 24). Start them clean.
+while IFS= read -r name; do unset "$name"; done < <(compgen -e | grep -i '^npm_')
 mkdir -p "$TOOLS"
 cd "$TOOLS"
 # Without a package.json of its own, npm would walk up and install into the project.
