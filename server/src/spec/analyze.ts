@@ -3,20 +3,20 @@
 
 import * as nodePath from 'node:path';
 import type { ClockFile } from '../../../shared-schema/src/clock-schema';
-import { DEFAULT_TOLERANCE } from '../../../shared-schema/src/defaults';
 import type { FileKind } from '../../../shared-schema/src/keys';
 import { outputSchema, type OutputEntry, type WaveFile } from '../../../shared-schema/src/wave-schema';
 import { formatBytes } from '../../../shared-schema/src/quantity-format';
-import { planOutput } from '../planning/choose';
 import type { Hardware } from '../planning/types';
 import { buildHardware } from './clock-model';
 import { keyRange, valueRange } from './nodes';
-import { planningDiagnostics } from './planning-diagnostics';
+import { Memo } from './memo';
+import { planEntry } from './output-plan';
 import { readQuantities } from './quantities';
 import { validate } from './schema-issues';
 import { type Source, diagnostic, readSource } from './source';
-import type { Analysis, OutputAnalysis, SpecDiagnostic, SpecHost } from './types';
-import { buildOutput, outputNames } from './wave-model';
+import type { Analysis, Range, SpecDiagnostic, SpecHost } from './types';
+import { type WaveSteps, analyzeWaveFast } from './wave-fast';
+import { outputNames } from './wave-model';
 
 /** More outputs than this in one file are not planned (each plan is a search). */
 export const MAX_OUTPUTS = 500;
@@ -24,6 +24,18 @@ export const MAX_OUTPUTS = 500;
 export const kindOf = (path: string): FileKind => (/\.clock\.ya?ml$/i.test(path) ? 'clock' : 'wave');
 
 export function analyze(path: string, text: string, host: SpecHost): Analysis {
+  return run(path, text, host, true);
+}
+
+/**
+ * The same analysis with a wave spec always read whole, never output by output: the reference
+ * the split reading (wave-fast.ts) must match, and a way to rule it out when chasing a problem.
+ */
+export function analyzeWhole(path: string, text: string, host: SpecHost): Analysis {
+  return run(path, text, host, false);
+}
+
+function run(path: string, text: string, host: SpecHost, split: boolean): Analysis {
   const analysis: Analysis = { path, kind: kindOf(path), text, diagnostics: [], outputs: [], hardware: null, clockPath: null, memory: null };
   try {
     if (analysis.kind === 'clock') {
@@ -31,7 +43,7 @@ export function analyze(path: string, text: string, host: SpecHost): Analysis {
       analysis.diagnostics = clock.diagnostics;
       analysis.hardware = clock.hardware;
     } else {
-      analyzeWave(analysis, host);
+      analyzeWave(analysis, host, split);
     }
   } catch (e) {
     analysis.diagnostics.push(diagnostic('internal-error', { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, `waveplan failed while checking this file (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`));
@@ -62,56 +74,75 @@ export function readClock(text: string): { hardware: Hardware | null; diagnostic
   return { hardware: built.hardware, diagnostics: [...diagnostics, ...built.diagnostics] };
 }
 
-function analyzeWave(analysis: Analysis, host: SpecHost): void {
+function analyzeWave(analysis: Analysis, host: SpecHost, split: boolean): void {
+  const steps: WaveSteps = {
+    maxOutputs: MAX_OUTPUTS,
+    resolveClock: (a, clock, range) => resolveClock(a, clock, range, host),
+    overBudget,
+  };
+  if (split && splitReading(analysis, steps)) return;
+  analyzeWaveWhole(analysis, host);
+}
+
+/** The split reading, or false (with the analysis left empty) so the file is read whole. */
+function splitReading(analysis: Analysis, steps: WaveSteps): boolean {
+  try {
+    if (analyzeWaveFast(analysis, steps)) return true;
+  } catch {
+    // Whatever failed here, reading the file whole gives the analysis or reports the failure.
+  }
+  Object.assign(analysis, { diagnostics: [], outputs: [], hardware: null, clockPath: null, memory: null });
+  return false;
+}
+
+/** The whole file read at once: every wave spec gives this analysis, however it is laid out. */
+function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
   const { src, diagnostics, quantities } = read('wave', analysis.text);
   analysis.diagnostics = diagnostics;
   const doc = src.doc;
   if (!doc || !quantities) return;
   const data = (src.data ?? {}) as Partial<WaveFile>;
 
-  const hardware = resolveClock(analysis, data, src, host);
+  if (typeof data.clock !== 'string' || data.clock.length === 0) return;
+  const hardware = resolveClock(analysis, data.clock, valueRange(doc, src.lines, ['clock']) ?? src.lines.firstLine(), host);
   if (!hardware) return;
   analysis.hardware = hardware;
 
   const names = outputNames(doc);
+  const outputsKey = keyRange(doc, src.lines, ['outputs']) ?? src.lines.firstLine();
   if (names.length > MAX_OUTPUTS) {
-    const r = keyRange(doc, src.lines, ['outputs']) ?? src.lines.firstLine();
-    diagnostics.push(diagnostic('too-many-outputs', r, `This file lists ${names.length} outputs, more than the ${MAX_OUTPUTS} waveplan plans in one file: split it into several wave files.`));
+    diagnostics.push(diagnostic('too-many-outputs', outputsKey, `This file lists ${names.length} outputs, more than the ${MAX_OUTPUTS} waveplan plans in one file: split it into several wave files.`));
   }
   let usedBytes = 0;
   for (const name of names.slice(0, MAX_OUTPUTS)) {
     const entry = (data.outputs as Record<string, unknown> | undefined)?.[name];
     const blocked = diagnostics.some((d) => d.output === name && d.severity === 'error' && d.code !== 'duplicate-output');
     if (blocked || !outputSchema.safeParse(entry).success) continue;
-    const built = buildOutput(name, entry as OutputEntry, quantities, hardware, doc, src.lines);
-    diagnostics.push(...built.diagnostics);
-    const draft = built.draft;
-    if (!draft) continue;
-    try {
-      const planning = planOutput(hardware, draft.request);
-      const toleranceText = quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
-      diagnostics.push(...planningDiagnostics(draft, planning, hardware, toleranceText));
-      const out: OutputAnalysis = { ...draft, planning };
-      analysis.outputs.push(out);
-      usedBytes += planning.plan?.tableBytes ?? 0;
-    } catch (e) {
-      diagnostics.push(diagnostic('internal-error', draft.nameRange, `Planning this output failed (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`, name));
-    }
+    const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines);
+    diagnostics.push(...planned.diagnostics);
+    if (planned.output) analysis.outputs.push(planned.output);
+    usedBytes += planned.tableBytes;
   }
+  overBudget(analysis, usedBytes, hardware, outputsKey);
+}
+
+function overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, outputsKey: Range): void {
   const budgetBytes = hardware.memory.budgetBytes;
   analysis.memory = { usedBytes, budgetBytes };
   if (usedBytes > budgetBytes) {
-    const r = keyRange(doc, src.lines, ['outputs']) ?? src.lines.firstLine();
-    diagnostics.push(diagnostic('over-budget', r, `All tables together take ${formatBytes(usedBytes)}, more than the ${formatBytes(budgetBytes)} memory budget: shorten tables, drop an output, or raise the budget.`));
+    analysis.diagnostics.push(diagnostic('over-budget', outputsKey, `All tables together take ${formatBytes(usedBytes)}, more than the ${formatBytes(budgetBytes)} memory budget: shorten tables, drop an output, or raise the budget.`));
   }
 }
 
-/** Reads the clock file `clock:` names, relative to the wave file; problems land on the `clock:` value. */
-function resolveClock(analysis: Analysis, data: Partial<WaveFile>, src: Source, host: SpecHost): Hardware | null {
-  if (typeof data.clock !== 'string' || data.clock.length === 0 || !src.doc) return null;
-  const clockPath = nodePath.resolve(nodePath.dirname(analysis.path), data.clock);
+// A clock file's text gives one Hardware object while it stays in this memo, so the outputs
+// planned on it (output-cache.ts) are found again by that object.
+const clocks = new Memo<string, ReturnType<typeof readClock>>(32);
+
+/** Reads the clock file `clock:` names, relative to the wave file; problems land on the `clock:` value at `range`. */
+function resolveClock(analysis: Analysis, clock: unknown, range: Range, host: SpecHost): Hardware | null {
+  if (typeof clock !== 'string' || clock.length === 0) return null;
+  const clockPath = nodePath.resolve(nodePath.dirname(analysis.path), clock);
   analysis.clockPath = clockPath;
-  const range = valueRange(src.doc, src.lines, ['clock']) ?? src.lines.firstLine();
   let text: string | undefined;
   try {
     text = host.readFile(clockPath);
@@ -119,17 +150,17 @@ function resolveClock(analysis: Analysis, data: Partial<WaveFile>, src: Source, 
     text = undefined;
   }
   if (text === undefined) {
-    analysis.diagnostics.push(diagnostic('clock-unreadable', range, `Cannot read the clock file ${data.clock} (looked for ${clockPath}): check the path, which is relative to this file.`));
+    analysis.diagnostics.push(diagnostic('clock-unreadable', range, `Cannot read the clock file ${clock} (looked for ${clockPath}): check the path, which is relative to this file.`));
     return null;
   }
-  const clock = readClock(text);
-  const errors = clock.diagnostics.filter((d) => d.severity === 'error');
-  if (errors.length > 0 || !clock.hardware) {
+  const read = clocks.get(text, readClock);
+  const errors = read.diagnostics.filter((d) => d.severity === 'error');
+  if (errors.length > 0 || !read.hardware) {
     const first = errors[0];
     const where = first ? ` (line ${first.range.start.line + 1}: ${first.message.replace(/\.$/, '')})` : '';
     const count = errors.length === 1 ? '1 error' : `${errors.length} errors`;
-    analysis.diagnostics.push(diagnostic('clock-invalid', range, `The clock file ${data.clock} has ${count}${where} — fix it there first.`));
+    analysis.diagnostics.push(diagnostic('clock-invalid', range, `The clock file ${clock} has ${count}${where} — fix it there first.`));
     return null;
   }
-  return clock.hardware;
+  return read.hardware;
 }

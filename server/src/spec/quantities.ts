@@ -33,6 +33,28 @@ export class Quantities {
   }
 }
 
+/** A quantity key of a file kind, in the order the schema lists its keys. */
+export interface QuantityKey {
+  /** Dotted path split at dots; `*` stands for an output name. */
+  parts: readonly string[];
+  meta: QuantityMeta;
+}
+
+// The key list is fixed by the schema: built once per kind, not on every analysis.
+const keyLists = new Map<FileKind, QuantityKey[]>();
+
+export function quantityKeys(kind: FileKind): QuantityKey[] {
+  let keys = keyLists.get(kind);
+  if (!keys) {
+    keys = [];
+    for (const info of listKeys(kind)) if (info.type === 'quantity' && info.quantity) keys.push({ parts: info.path.split('.'), meta: info.quantity.bounds });
+    keyLists.set(kind, keys);
+  }
+  return keys;
+}
+
+const concrete = (key: QuantityKey, name: string): Path => [key.parts[0], name, ...key.parts.slice(2)];
+
 /** Concrete paths of every quantity key that exists in the document (`*` expanded to output names). */
 function presentPaths(kind: FileKind, doc: Document.Parsed, data: unknown): { path: Path; meta: QuantityMeta }[] {
   const names =
@@ -40,11 +62,9 @@ function presentPaths(kind: FileKind, doc: Document.Parsed, data: unknown): { pa
       ? Object.keys((data as Record<string, object>).outputs)
       : [];
   const out: { path: Path; meta: QuantityMeta }[] = [];
-  for (const info of listKeys(kind)) {
-    if (info.type !== 'quantity' || !info.quantity) continue;
-    const parts = info.path.split('.');
-    const concrete = parts[1] === '*' ? names.map((n) => [parts[0], n, ...parts.slice(2)]) : [parts];
-    for (const path of concrete) if (locate(doc, path)) out.push({ path, meta: info.quantity.bounds });
+  for (const key of quantityKeys(kind)) {
+    const paths = key.parts[1] === '*' ? names.map((n) => concrete(key, n)) : [key.parts];
+    for (const path of paths) if (locate(doc, path)) out.push({ path, meta: key.meta });
   }
   return out;
 }
@@ -83,27 +103,43 @@ export function readQuantities(
   const quantities = new Quantities();
   const diagnostics: SpecDiagnostic[] = [];
   for (const { path, meta } of presentPaths(kind, doc, data)) {
-    const label = `\`${path[path.length - 1]}\``;
-    const range = valueRange(doc, lines, path) ?? rangeFor(doc, lines, path);
-    const output = outputOf(kind, path);
-    const text = scalarText(doc, locate(doc, path)?.value);
-    if (text === undefined) {
-      diagnostics.push(diagnostic('wrong-type', range, `${label} needs a number with its unit, such as \`${quantityExample(meta.kind)}\`, not an empty value, list or mapping.`, output));
-      continue;
-    }
-    const parsed = parseQuantity(meta.kind, text);
-    if (!parsed.ok) {
-      diagnostics.push(diagnostic(parsed.code, range, parsed.message, output));
-      continue;
-    }
-    // A relative tolerance has no bound in hertz; only its sign is checked.
-    const bounds = meta.kind === 'tolerance' ? { ...meta, max: undefined } : meta;
-    if (!inBounds(parsed.value, bounds)) {
-      diagnostics.push(diagnostic('out-of-range', range, `${label} must be ${boundsText(bounds, parsed.base)}: change \`${text.trim()}\`.`, output));
-      continue;
-    }
-    quantities.set(path, { value: parsed.value, base: parsed.base, unit: parsed.unit, text: text.trim() });
+    const d = readQuantity(kind, doc, lines, path, meta, quantities);
+    if (d) diagnostics.push(d);
   }
   return { quantities, diagnostics };
 }
 
+/**
+ * One output's quantities of a wave spec. The diagnostics come per quantity key (the index into
+ * `quantityKeys('wave')`), so a caller that reads outputs one by one can still list them in the
+ * order `readQuantities` does: key by key, outputs in file order within each key.
+ */
+export function readOutputQuantities(doc: Document.Parsed, lines: LineIndex, name: string, quantities: Quantities): SpecDiagnostic[][] {
+  return quantityKeys('wave').map((key) => {
+    if (key.parts[1] !== '*') return [];
+    const path = concrete(key, name);
+    if (!locate(doc, path)) return [];
+    const d = readQuantity('wave', doc, lines, path, key.meta, quantities);
+    return d ? [d] : [];
+  });
+}
+
+/** Reads the quantity at `path` into `quantities`; a diagnostic when it cannot. */
+function readQuantity(kind: FileKind, doc: Document.Parsed, lines: LineIndex, path: Path, meta: QuantityMeta, quantities: Quantities): SpecDiagnostic | undefined {
+  const label = `\`${path[path.length - 1]}\``;
+  const range = valueRange(doc, lines, path) ?? rangeFor(doc, lines, path);
+  const output = outputOf(kind, path);
+  const text = scalarText(doc, locate(doc, path)?.value);
+  if (text === undefined) {
+    return diagnostic('wrong-type', range, `${label} needs a number with its unit, such as \`${quantityExample(meta.kind)}\`, not an empty value, list or mapping.`, output);
+  }
+  const parsed = parseQuantity(meta.kind, text);
+  if (!parsed.ok) return diagnostic(parsed.code, range, parsed.message, output);
+  // A relative tolerance has no bound in hertz; only its sign is checked.
+  const bounds = meta.kind === 'tolerance' ? { ...meta, max: undefined } : meta;
+  if (!inBounds(parsed.value, bounds)) {
+    return diagnostic('out-of-range', range, `${label} must be ${boundsText(bounds, parsed.base)}: change \`${text.trim()}\`.`, output);
+  }
+  quantities.set(path, { value: parsed.value, base: parsed.base, unit: parsed.unit, text: text.trim() });
+  return undefined;
+}

@@ -57,7 +57,7 @@ export interface Source {
 }
 
 /** Deepest [ / { nesting outside quotes and comments, and where it first passes the limit. */
-function flowDepthBreach(text: string): number | undefined {
+export function flowDepthBreach(text: string): number | undefined {
   let depth = 0;
   let quote = '';
   let comment = false;

@@ -1,0 +1,148 @@
+// One output of a wave spec read on its own, from its piece of the text (segments.ts), and kept
+// in a bounded memo keyed by that text: an edit elsewhere in the file leaves the piece's text,
+// and so its reading, unchanged. The piece is read as a small spec of its own, `outputs:` and the
+// piece, so every key path and message is the one the whole file gives; positions come back
+// relative to the piece and are moved to the file's lines when used (mapPiece).
+
+import type { Document } from 'yaml';
+import { type OutputEntry, outputSchema, waveSchema } from '../../../shared-schema/src/wave-schema';
+import type { Hardware } from '../planning/types';
+import { Memo } from './memo';
+import { type PlannedOutput, planEntry } from './output-plan';
+import { Quantities, readOutputQuantities } from './quantities';
+import { schemaDiagnostics } from './schema-issues';
+import type { OutputPiece } from './segments';
+import { type LineIndex, readSource } from './source';
+import type { OutputAnalysis, Position, Range, SpecDiagnostic } from './types';
+import { outputNames } from './wave-model';
+
+/** What an output's text alone decides: the diagnostics before planning, and whether it can be planned. */
+export interface PieceReading {
+  /** False when the piece does not read on its own as it does in the file; the file is then read whole. */
+  ok: boolean;
+  /** Schema diagnostics about this output, in the schema's order. */
+  schema: SpecDiagnostic[];
+  /** Quantity diagnostics per quantity key (index into `quantityKeys('wave')`). */
+  quantities: SpecDiagnostic[][];
+  /** No error blocks planning and the entry matches the output schema. */
+  plannable: boolean;
+  /** Planned results per hardware (a clock file's text gives one Hardware object: see analyze.ts). */
+  planned: WeakMap<Hardware, PlannedOutput | null>;
+  /** The parse, kept only until the first planning so a new output is not parsed twice. */
+  parsed?: Parsed;
+}
+
+const NOT_READABLE: PieceReading = { ok: false, schema: [], quantities: [], plannable: false, planned: new WeakMap() };
+
+/** The piece as a spec of its own: line 0 is `outputs:`, the piece starts on line 1. */
+function standalone(piece: OutputPiece): string {
+  const column = piece.text.length - piece.text.trimStart().length;
+  const after = piece.follower === 'sibling' ? `${' '.repeat(column)}${piece.name}-0:\n` : piece.follower === 'top-level' ? 'next:\n' : '';
+  return `outputs:\n${piece.text}${after}`;
+}
+
+const isOutputs = (p: string[]) => p.length === 1 && p[0] === 'outputs';
+
+interface Parsed {
+  doc: Document.Parsed;
+  lines: LineIndex;
+  data: { outputs: Record<string, unknown> };
+  quantities: Quantities;
+}
+
+function parse(piece: OutputPiece): Parsed | null {
+  const src = readSource(standalone(piece), isOutputs);
+  if (!src.doc || src.diagnostics.length > 0) return null;
+  const outputs = (src.data as { outputs?: unknown } | null)?.outputs;
+  if (!outputs || typeof outputs !== 'object' || !Object.hasOwn(outputs, piece.name)) return null;
+  if (outputNames(src.doc)[0] !== piece.name) return null;
+  return { doc: src.doc, lines: src.lines, data: src.data as Parsed['data'], quantities: new Quantities() };
+}
+
+const outputsSchema = waveSchema.shape.outputs;
+
+/**
+ * The schema diagnostics about this output, as validating the whole file lists them: the outputs
+ * mapping is validated here (the standalone text has no `clock:`), and only this output's issues kept.
+ */
+function schemaOf(piece: OutputPiece, { doc, lines, data }: Parsed): SpecDiagnostic[] {
+  const result = outputsSchema.safeParse(data.outputs);
+  if (result.success) return [];
+  const own = result.error.issues.filter((i) => i.path[0] === piece.name).map((i) => ({ ...i, path: ['outputs', ...i.path] }));
+  return schemaDiagnostics('wave', doc, lines, data, own);
+}
+
+/** Lines of the standalone text that belong to the piece (the line after it only at its start). */
+function inPiece(piece: OutputPiece): (p: Position) => boolean {
+  let newlines = 0;
+  for (let i = 0; i < piece.text.length; i++) if (piece.text.charCodeAt(i) === 10) newlines++;
+  const closed = piece.text.endsWith('\n');
+  return (p) => p.line >= 1 && (p.line < 1 + newlines || (p.line === 1 + newlines && (!closed || p.character === 0)));
+}
+
+const rangeIn = (ok: (p: Position) => boolean, r: Range): boolean => ok(r.start) && ok(r.end);
+
+function read(piece: OutputPiece): PieceReading {
+  const parsed = parse(piece);
+  if (!parsed) return NOT_READABLE;
+  const { doc, lines, data } = parsed;
+  const schema = schemaOf(piece, parsed);
+  const quantities = readOutputQuantities(doc, lines, piece.name, parsed.quantities);
+  const own = [...schema, ...quantities.flat()];
+  const ok = inPiece(piece);
+  if (!own.every((d) => rangeIn(ok, d.range))) return NOT_READABLE;
+  const blocked = own.some((d) => d.severity === 'error' && d.code !== 'duplicate-output');
+  const plannable = !blocked && outputSchema.safeParse(data.outputs[piece.name]).success;
+  return { ok: true, schema, quantities, plannable, planned: new WeakMap(), parsed: plannable ? parsed : undefined };
+}
+
+function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware): PlannedOutput | null {
+  let parsed = reading.parsed;
+  reading.parsed = undefined;
+  if (!parsed) {
+    const again = parse(piece);
+    if (!again) return null;
+    readOutputQuantities(again.doc, again.lines, piece.name, again.quantities);
+    parsed = again;
+  }
+  const { doc, lines, data, quantities } = parsed;
+  const planned = planEntry(piece.name, data.outputs[piece.name] as OutputEntry, quantities, hardware, doc, lines);
+  const ok = inPiece(piece);
+  const o = planned.output;
+  const ranges = o ? [o.nameRange, o.entryRange, ...Object.values(o.valueRanges)] : [];
+  return [...ranges, ...planned.diagnostics.map((d) => d.range)].every((r) => rangeIn(ok, r)) ? planned : null;
+}
+
+// A few large specs open at once, each edited many times, stay well within this.
+const readings = new Memo<string, PieceReading>(4000);
+
+const keyOf = (piece: OutputPiece): string => `${piece.follower}\u0000${piece.text}`;
+
+export function readPiece(piece: OutputPiece): PieceReading {
+  return readings.get(keyOf(piece), () => read(piece));
+}
+
+/** The planned output; null when it does not read on its own (the file is then read whole). */
+export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware): PlannedOutput | null {
+  let planned = reading.planned.get(hardware);
+  if (planned === undefined) {
+    planned = plan(piece, reading, hardware);
+    reading.planned.set(hardware, planned);
+  }
+  return planned;
+}
+
+/** Moves positions read from a piece on its own to the file's lines. */
+export function mapPiece(piece: OutputPiece) {
+  const delta = piece.line - 1;
+  const range = (r: Range): Range => ({ start: { line: r.start.line + delta, character: r.start.character }, end: { line: r.end.line + delta, character: r.end.character } });
+  const diag = (d: SpecDiagnostic): SpecDiagnostic => ({ ...d, range: range(d.range) });
+  const output = (o: OutputAnalysis): OutputAnalysis => {
+    const valueRanges: Record<string, Range> = {};
+    for (const [k, r] of Object.entries(o.valueRanges)) valueRanges[k] = range(r);
+    return { ...o, nameRange: range(o.nameRange), entryRange: range(o.entryRange), valueRanges };
+  };
+  return { range, diag, output };
+}
+
+export const clearPieceMemo = (): void => readings.clear();

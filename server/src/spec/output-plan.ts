@@ -1,0 +1,38 @@
+// One output of a wave spec, from its validated entry to its planned analysis: the request, the
+// planner's verdict and the diagnostics about both. The same step for a file read whole and for
+// an output read on its own (wave-fast.ts).
+
+import { DEFAULT_TOLERANCE } from '../../../shared-schema/src/defaults';
+import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
+import type { Document } from 'yaml';
+import { planOutput } from '../planning/choose';
+import type { Hardware } from '../planning/types';
+import { planningDiagnostics } from './planning-diagnostics';
+import type { Quantities } from './quantities';
+import { type LineIndex, diagnostic } from './source';
+import type { OutputAnalysis, SpecDiagnostic } from './types';
+import { buildOutput } from './wave-model';
+
+export interface PlannedOutput {
+  diagnostics: SpecDiagnostic[];
+  /** Absent when the entry cannot be planned or planning failed. */
+  output?: OutputAnalysis;
+  /** Bytes of the chosen table (0 without a plan). */
+  tableBytes: number;
+}
+
+export function planEntry(name: string, entry: OutputEntry, quantities: Quantities, hardware: Hardware, doc: Document.Parsed, lines: LineIndex): PlannedOutput {
+  const built = buildOutput(name, entry, quantities, hardware, doc, lines);
+  const diagnostics = [...built.diagnostics];
+  const draft = built.draft;
+  if (!draft) return { diagnostics, tableBytes: 0 };
+  try {
+    const planning = planOutput(hardware, draft.request);
+    const toleranceText = quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
+    diagnostics.push(...planningDiagnostics(draft, planning, hardware, toleranceText));
+    return { diagnostics, output: { ...draft, planning }, tableBytes: planning.plan?.tableBytes ?? 0 };
+  } catch (e) {
+    diagnostics.push(diagnostic('internal-error', draft.nameRange, `Planning this output failed (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`, name));
+    return { diagnostics, tableBytes: 0 };
+  }
+}
