@@ -14,6 +14,7 @@ import { registerPlanReport } from './plan-report';
 import { registerRecheckFallback } from './recheck';
 import { registerReportView } from './report-view';
 import { OutOfToleranceStatus } from './status';
+import { SERVER_NODE_FLAGS } from './server-flags';
 
 /** The file kinds the server understands; it tells them apart by file name. */
 const documentSelector: LanguageClientOptions['documentSelector'] = [
@@ -41,10 +42,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
 
   // The server reads `serve` as its sub-command; the client appends --stdio itself.
   const serverOptions: ServerOptions = {
-    // A small young generation keeps the server's resident memory near what it really holds:
-    // the planner allocates many short-lived objects, and V8's default headroom for them roughly
-    // doubled the RSS after opening 100 large specs (bench/lsp.ts measures both).
-    run: { module: serverModule, transport: TransportKind.stdio, args: ['serve'], options: { execArgv: ['--max-semi-space-size=1'] } },
+    run: { module: serverModule, transport: TransportKind.stdio, args: ['serve'], options: { execArgv: [...SERVER_NODE_FLAGS] } },
     debug: {
       module: serverModule,
       transport: TransportKind.stdio,

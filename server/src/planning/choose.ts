@@ -9,7 +9,7 @@ import { nearestWholeCycle } from './whole';
 import type { Hardware, OutputPlanning, OutputRequest, Plan, PlanFigures } from './types';
 
 /** The memo shared by every caller of planOutput (language server, checker, exporters). */
-export const planningCache = new PlanningCache(2000);
+export const planningCache = new PlanningCache(1000);
 
 const within = (plan: Plan | PlanFigures | null, toleranceHz: Rational): boolean =>
   plan !== null && cmp(abs(plan.errorHz), toleranceHz) <= 0;

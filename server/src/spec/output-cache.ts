@@ -113,8 +113,9 @@ function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware): Pl
   return [...ranges, ...planned.diagnostics.map((d) => d.range)].every((r) => rangeIn(ok, r)) ? planned : null;
 }
 
-// A few large specs open at once, each edited many times, stay well within this.
-const readings = new Memo<string, PieceReading>(4000);
+// Two files at the 500-output limit, each edited many times, stay within this; a larger memo
+// costs the language server resident memory (bench/lsp.ts) for little gain.
+const readings = new Memo<string, PieceReading>(1000);
 
 const keyOf = (piece: OutputPiece): string => `${piece.follower}\u0000${piece.text}`;
 
