@@ -14,42 +14,60 @@ export interface CheckOptions {
   help: boolean;
 }
 
-/** Flags that take a value, accepted as `--flag value` or `--flag=value`. */
-const VALUE_FLAGS = new Set(['--format', '--output']);
+export interface ParsedWords {
+  positional: string[];
+  values: Map<string, string>;
+  switches: Set<string>;
+}
 
-export function parseCheckArgs(argv: readonly string[]): CheckOptions {
-  const options: CheckOptions = { paths: [], format: 'text', output: null, help: false };
+/**
+ * The words of any subcommand: positional arguments, `--flag value` / `--flag=value` for the value
+ * flags, bare switches; `--` ends the flags and `-h` means `--help`.
+ */
+export function parseWords(argv: readonly string[], valueFlags: readonly string[], switchFlags: readonly string[]): ParsedWords {
+  const parsed: ParsedWords = { positional: [], values: new Map(), switches: new Set() };
   let flagsDone = false;
   for (let i = 0; i < argv.length; i++) {
     const word = argv[i];
     if (flagsDone || !word.startsWith('-') || word === '-') {
-      options.paths.push(word);
+      parsed.positional.push(word);
       continue;
     }
     if (word === '--') {
       flagsDone = true;
       continue;
     }
-    if (word === '--help' || word === '-h') {
-      options.help = true;
-      continue;
-    }
     const eq = word.indexOf('=');
     const flag = eq >= 0 ? word.slice(0, eq) : word;
-    if (!VALUE_FLAGS.has(flag)) throw new UsageError(`unknown option ${flag}`);
-    let value: string | undefined;
-    if (eq >= 0) value = word.slice(eq + 1);
-    else value = argv[++i];
-    if (value === undefined || value === '') throw new UsageError(`${flag} needs a value`);
-    if (flag === '--format') {
-      if (!(REPORT_FORMATS as readonly string[]).includes(value)) {
-        throw new UsageError(`--format must be one of ${REPORT_FORMATS.join(', ')} (got "${value}")`);
-      }
-      options.format = value as ReportFormat;
+    if (flag === '-h') {
+      parsed.switches.add('--help');
+    } else if (switchFlags.includes(flag)) {
+      if (eq >= 0) throw new UsageError(`${flag} takes no value`);
+      parsed.switches.add(flag);
+    } else if (valueFlags.includes(flag)) {
+      const value = eq >= 0 ? word.slice(eq + 1) : argv[++i];
+      if (value === undefined || value === '') throw new UsageError(`${flag} needs a value`);
+      if (parsed.values.has(flag)) throw new UsageError(`${flag} given twice`);
+      parsed.values.set(flag, value);
     } else {
-      options.output = value;
+      throw new UsageError(`unknown option ${flag}`);
     }
   }
+  return parsed;
+}
+
+export function parseCheckArgs(argv: readonly string[]): CheckOptions {
+  const p = parseWords(argv, ['--format', '--output'], ['--help']);
+  const format = p.values.get('--format') ?? 'text';
+  if (!(REPORT_FORMATS as readonly string[]).includes(format)) {
+    throw new UsageError(`--format must be one of ${REPORT_FORMATS.join(', ')} (got "${format}")`);
+  }
+  const options: CheckOptions = {
+    paths: p.positional,
+    format: format as ReportFormat,
+    output: p.values.get('--output') ?? null,
+    help: p.switches.has('--help'),
+  };
   if (!options.help && options.paths.length === 0) throw new UsageError('check needs at least one file or folder');
   return options;
 }

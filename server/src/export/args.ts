@@ -1,7 +1,7 @@
 // Command-line words of `waveplan export` and `waveplan report`. Misuse is a UsageError; the
 // commands turn it into a message, the usage text and exit code 2.
 
-import { UsageError } from '../cli/args';
+import { UsageError, parseWords } from '../cli/args';
 
 export { UsageError };
 
@@ -32,44 +32,6 @@ export interface ReportOptions {
   specs: string[];
   html: string | null;
   help: boolean;
-}
-
-interface Parsed {
-  positional: string[];
-  values: Map<string, string>;
-  switches: Set<string>;
-}
-
-function parseWords(argv: readonly string[], valueFlags: readonly string[], switchFlags: readonly string[]): Parsed {
-  const parsed: Parsed = { positional: [], values: new Map(), switches: new Set() };
-  let flagsDone = false;
-  for (let i = 0; i < argv.length; i++) {
-    const word = argv[i];
-    if (flagsDone || !word.startsWith('-') || word === '-') {
-      parsed.positional.push(word);
-      continue;
-    }
-    if (word === '--') {
-      flagsDone = true;
-      continue;
-    }
-    const eq = word.indexOf('=');
-    const flag = eq >= 0 ? word.slice(0, eq) : word;
-    if (flag === '-h') {
-      parsed.switches.add('--help');
-    } else if (switchFlags.includes(flag)) {
-      if (eq >= 0) throw new UsageError(`${flag} takes no value`);
-      parsed.switches.add(flag);
-    } else if (valueFlags.includes(flag)) {
-      const value = eq >= 0 ? word.slice(eq + 1) : argv[++i];
-      if (value === undefined || value === '') throw new UsageError(`${flag} needs a value`);
-      if (parsed.values.has(flag)) throw new UsageError(`${flag} given twice`);
-      parsed.values.set(flag, value);
-    } else {
-      throw new UsageError(`unknown option ${flag}`);
-    }
-  }
-  return parsed;
 }
 
 export function parseExportArgs(argv: readonly string[]): ExportOptions {
