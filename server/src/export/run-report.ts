@@ -2,13 +2,13 @@
 // written even when the specs have errors (it shows them); the exit code says whether they do:
 // 0 none, 1 errors, 2 misuse or I/O failure.
 
-import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { CliInputError } from '../cli/disk';
 import { parseReportArgs, REPORT_USAGE } from './args';
 import { reportHtml } from './html-report';
 import { guarded, processIo, type CommandIo } from './io';
 import { loadSpecs } from './load';
+import { writeAll } from './run-export';
 
 export async function runReport(argv: string[], io: CommandIo = processIo()): Promise<number> {
   return guarded('report', REPORT_USAGE, io, () => {
@@ -22,12 +22,7 @@ export async function runReport(argv: string[], io: CommandIo = processIo()): Pr
     if (specs.some((s) => s.file === target || s.analysis.clockPath === target))
       throw new CliInputError(`refusing to write the report over a spec file: ${options.html}`);
     const html = reportHtml(specs);
-    try {
-      fs.mkdirSync(path.dirname(target), { recursive: true });
-      fs.writeFileSync(target, html);
-    } catch (e) {
-      throw new CliInputError(`cannot write ${options.html}: ${(e as NodeJS.ErrnoException).code ?? 'error'}`);
-    }
+    writeAll([{ file: target, text: html }]);
     const errors = specs.reduce((n, s) => n + s.errors.length, 0);
     io.stdout(`report written to ${options.html} (${specs.length} spec(s), ${errors} error(s))\n`);
     return errors > 0 ? 1 : 0;
