@@ -27,16 +27,21 @@ export function compactHz(hz: Rational): string {
   return `${exact ? '' : '≈ '}${shown} ${unit}`;
 }
 
-/** Signed ppm with a real minus sign and three significant digits. */
+/**
+ * Signed error with a real minus sign and three significant digits, in ppb below 0.01 ppm so a
+ * tiny error stays short (the editor truncates long annotations, 43 characters by default).
+ */
 export function compactPpm(ppm: number): string {
   if (ppm === 0) return '0 ppm';
-  const shown = Number(Math.abs(ppm).toPrecision(3));
-  return `${ppm < 0 ? '−' : '+'}${shown} ppm`;
+  const ppb = Math.abs(ppm) < 0.01;
+  const shown = Number((Math.abs(ppm) * (ppb ? 1000 : 1)).toPrecision(3));
+  return `${ppm < 0 ? '−' : '+'}${shown} ${ppb ? 'ppb' : 'ppm'}`;
 }
 
 export function hintText(plan: PlanFigures): string {
   const parts = [compactHz(plan.achievedHz), compactPpm(plan.errorPpm), formatDivider(plan)];
-  if (!plan.jitterFree) parts.push(`jitter ${formatSeconds(plan.jitter.samplePeriodJitterRmsS)} rms`);
+  // RMS sample-period jitter; the hover card gives the peak-to-peak and TIE figures.
+  if (!plan.jitterFree) parts.push(`jitter ${formatSeconds(plan.jitter.samplePeriodJitterRmsS)}`);
   parts.push(plan.seam.ok ? 'seam ok' : `seam jump ${Number(plan.seam.jumpLsb.toPrecision(3))} LSB`);
   return parts.join(' · ');
 }
@@ -61,7 +66,8 @@ export function inlayHints(doc: TextDocument, analysis: Analysis, range: Range):
       label,
       kind: InlayHintKind.Type,
       paddingLeft: true,
-      tooltip: `${output.name}: ${VERDICT_WORDS[output.planning.verdict]}`,
+      // The whole annotation again: the editor may have truncated the label.
+      tooltip: `${output.name}: ${VERDICT_WORDS[output.planning.verdict]} — ${label}`,
     });
   }
   return hints;
