@@ -31,6 +31,7 @@ afterAll(async () => {
 interface InlayHint {
   position: { line: number; character: number };
   label: string;
+  tooltip?: string;
 }
 interface Hover {
   contents: { kind: string; value: string };
