@@ -81,6 +81,8 @@ export function planJson(p: PlanFigures) {
     seamJumpLsb: p.seam.jumpLsb,
     seamCause: p.seam.cause,
     tableBytes: p.tableBytes,
+    /** False only when the search stopped at its work limit (absurdly large domains). */
+    provenNearest: p.searchLimited !== true,
   };
 }
 

@@ -79,6 +79,9 @@ export function lengthMultiple(d: Domain, n: number): number {
  */
 export function quietestMultiple(scale: number, g: number, t0: number, t1: number): number {
   const period = scale / gcdNumber(g % scale, scale);
+  // F = t·g mod scale is 0 exactly when t is a multiple of the period: a span holding a whole
+  // period has one, and the first is the answer (without a loop of up to 2^k steps per call).
+  if (t1 - t0 + 1 >= period) return Math.ceil(t0 / period) * period;
   let best = 0;
   let bestTerm = Infinity;
   for (let t = t0; t <= t1 && t < t0 + period; t++) {

@@ -13,6 +13,26 @@ import { quietestMultiple } from './exact';
 
 const out = new FloatNeighbours();
 
+/**
+ * Steps a search may still take, shared by its walk and the plain scans the walk falls back to;
+ * only absurdly large domains run it out (see WALK_BUDGET in search.ts).
+ */
+export class WorkBudget {
+  constructor(private left: number) {}
+
+  /** Takes `steps` steps (default one); false once the budget is spent. */
+  take(steps = 1): boolean {
+    this.left -= steps;
+    return this.left >= 0;
+  }
+
+  get spent(): boolean {
+    return this.left < 0;
+  }
+}
+
+const UNLIMITED = (): WorkBudget => new WorkBudget(Infinity);
+
 /** a/b keeps S = b/a ≥ S floor. */
 function keepsFloor(d: Domain, a: number, b: number): boolean {
   const l = a * d.sNumF;
@@ -34,6 +54,7 @@ export class ScanJ {
     private readonly d: Domain,
     private readonly lead: Leader,
     private readonly cap: Cap | null,
+    private readonly budget: WorkBudget = UNLIMITED(),
   ) {
     this.ratio = d.targetF / d.clockF;
   }
@@ -72,7 +93,7 @@ export class ScanJ {
     const d = this.d;
     const x = this.ratio * j;
     if (d.powerOfTwo) for (const n of d.lengths) this.cycles(j, n, x);
-    else for (let n = d.nMin; n <= d.nMax; n++) this.cycles(j, n, x);
+    else for (let n = d.nMin; n <= d.nMax && this.budget.take(); n++) this.cycles(j, n, x);
   }
 
   private cycles(j: number, n: number, x: number): void {
@@ -94,6 +115,7 @@ export class ScanN {
   constructor(
     private readonly d: Domain,
     private readonly lead: Leader,
+    private readonly budget: WorkBudget = UNLIMITED(),
   ) {
     this.ratio = d.targetF / d.clockF;
   }
@@ -119,7 +141,12 @@ export class ScanN {
     const k0 = Math.max(1, Math.ceil(d.jMin / j));
     const k1 = Math.min(Math.floor(d.jMax / j), Math.floor(top / m));
     if (k0 > k1) return false;
-    const k = d.mode === 'fractional' ? quietestMultiple(d.scale, j, k0, k1) : k0;
+    let k = k0;
+    if (d.mode === 'fractional') {
+      // Choosing the quietest multiple walks up to a period of the fraction's residues.
+      this.budget.take(Math.min(k1 - k0 + 1, d.scale));
+      k = quietestMultiple(d.scale, j, k0, k1);
+    }
     this.lead.offer(k * j, n, k * m, errF);
     return true;
   }
@@ -129,7 +156,7 @@ export class ScanN {
     const d = this.d;
     const y = this.ratio * n;
     if (d.jMax - d.jMin + 1 <= top) {
-      for (let j = d.jMin; j <= d.jMax; j++) {
+      for (let j = d.jMin; j <= d.jMax && this.budget.take(); j++) {
         const m0 = Math.floor(y * j);
         let last = 0;
         for (let m = m0 - 1; m <= m0 + 2; m++) {
@@ -140,7 +167,7 @@ export class ScanN {
       }
       return;
     }
-    for (let m = 1; m <= top; m++) {
+    for (let m = 1; m <= top && this.budget.take(); m++) {
       // For fixed N and M the error falls then rises in J: floor or ceil of M/y is best.
       const j0 = Math.floor(m / y);
       let last = 0;

@@ -12,7 +12,7 @@ import { type Rational, rat, sub } from '../../../shared-schema/src/rational';
 import { fareyNeighbours } from './farey';
 import { type Domain, jitterFreeDomain, fractionalDomain, achievedHz } from './domain';
 import { type Candidate, Leader } from './rank';
-import { type Cap, ScanJ, ScanN } from './scan';
+import { type Cap, ScanJ, ScanN, WorkBudget } from './scan';
 import { offerExactPlans } from './exact';
 import { searchByCycles } from './cycles';
 import type { Hardware, Plan, PlanRequest } from './types';
@@ -35,7 +35,7 @@ export function nearestJitterFreeBy(hw: Hardware, req: PlanRequest, strategy: St
   const d = jitterFreeDomain(hw, req);
   if (d === null) return null;
   const c = solve(d, null, strategy);
-  return c === null ? null : toPlan(hw, d, c);
+  return c.best === null ? null : toPlan(hw, d, c.best, c.complete);
 }
 
 /**
@@ -50,24 +50,26 @@ export function bestFractional(hw: Hardware, req: PlanRequest): Plan | null {
 /** bestFractional with a chosen strategy. */
 export function bestFractionalBy(hw: Hardware, req: PlanRequest, strategy: Strategy): Plan | null {
   const whole = jitterFreeDomain(hw, req);
-  const wholeBest = whole === null ? null : solve(whole, null, strategy);
+  const wholeOutcome = whole === null ? null : solve(whole, null, strategy);
+  const wholeBest = wholeOutcome === null ? null : wholeOutcome.best;
   if (hw.divider.fractionBits === 0 || (wholeBest !== null && sub(achieved(whole!, wholeBest), req.targetHz).num === 0n)) {
-    return wholeBest === null ? null : toPlan(hw, whole!, wholeBest);
+    return wholeBest === null ? null : toPlan(hw, whole!, wholeBest, wholeOutcome!.complete);
   }
   const d = fractionalDomain(hw, req);
   if (d === null) return null;
   const seed = wholeBest === null ? null : { ...wholeBest, j: wholeBest.j * d.scale };
   const c = solve(d, seed, strategy);
-  return c === null ? null : toPlan(hw, d, c);
+  return c.best === null ? null : toPlan(hw, d, c.best, c.complete);
 }
 
 function achieved(d: Domain, c: Candidate): Rational {
   return achievedHz(d, c.j, c.n, c.m);
 }
 
-function toPlan(hw: Hardware, d: Domain, c: Candidate): Plan {
+function toPlan(hw: Hardware, d: Domain, c: Candidate, complete: boolean): Plan {
   const achievedHz = achieved(d, c);
   return {
+    ...(complete ? {} : { searchLimited: true }),
     dividerInteger: Math.floor(c.j / d.scale),
     dividerFraction: c.j % d.scale,
     fractionBits: hw.divider.fractionBits,
@@ -90,14 +92,30 @@ const EDGE = 1e-9;
 const CYCLES_FROM = 64;
 const CYCLES_MAX = 1 << 18;
 
+/**
+ * Walk steps one search may take (about half a second). Only absurd domains reach it — say a 32-bit divider
+ * with 16 fraction bits and 2^26-sample tables at a millihertz target; the search then stops and
+ * says its plan is the best found, not proven nearest, rather than running for minutes. Counted
+ * in steps, not seconds, so the result does not depend on the machine.
+ */
+export const WALK_BUDGET = 1 << 19;
+
+/** What a search found, and whether it covered the whole domain (else: stopped at WALK_BUDGET). */
+export interface Outcome {
+  best: Candidate | null;
+  complete: boolean;
+}
+
 /** The exact best candidate of a domain, starting from an optional known plan. */
-export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'auto'): Candidate | null {
+export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'auto'): Outcome {
   const lead = new Leader(d);
+  const done = (complete = true): Outcome => ({ best: lead.result(), complete });
   if (seed !== null) lead.offer(seed.j, seed.n, seed.m);
   // Error 0 cannot be beaten, and the exact plans are ranked without a scan.
-  if (strategy !== 'walk' && offerExactPlans(d, lead)) return lead.result();
-  const byJ = new ScanJ(d, lead, capOf(d));
-  const byN = new ScanN(d, lead);
+  if (strategy !== 'walk' && offerExactPlans(d, lead)) return done();
+  const budget = new WorkBudget(WALK_BUDGET);
+  const byJ = new ScanJ(d, lead, capOf(d), budget);
+  const byN = new ScanN(d, lead, budget);
   const C = d.clockF;
   const T = d.targetF;
   const clampJ = (j: number): number => Math.min(d.jMax, Math.max(d.jMin, j));
@@ -123,14 +141,15 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
     strategy === 'cycles'
       ? { maxCycles: Infinity, maxPairs: Infinity }
       : strategy === 'auto' && walk > CYCLES_FROM
-        ? { maxCycles: Math.min(16 * walk, CYCLES_MAX), maxPairs: walk / 16 }
+        ? { maxCycles: Math.min(16 * walk, CYCLES_MAX), maxPairs: Math.min(walk, WALK_BUDGET) / 16 }
         : null;
-  if (limits !== null && searchByCycles(d, lead, limits)) return lead.result();
+  if (limits !== null && searchByCycles(d, lead, limits)) return done();
 
   if (j1 - j0 + 1 <= countN) {
     // Ascending J: once the leader is exact (and jitter-free in fractional mode) at a J already
     // passed, no later J can beat it — a larger J means a smaller S for the same f_out.
     for (let j = j0; j <= j1; j++) {
+      if (!budget.take()) return done(false);
       const before = lead.errF;
       byJ.run(j);
       if (lead.errF !== before) {
@@ -139,11 +158,15 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
       }
     }
   } else if (lengths !== null) {
-    for (const n of lengths) byN.run(n);
+    for (const n of lengths) if (budget.take()) byN.run(n);
   } else {
-    for (let n = nLow; n <= d.nMax; n++) byN.run(n);
+    // Longest tables first: they resolve the finest frequencies, so a stopped walk keeps them.
+    for (let n = d.nMax; n >= nLow; n--) {
+      if (!budget.take()) return done(false);
+      byN.run(n);
+    }
   }
-  return lead.result();
+  return done(!budget.spent);
 }
 
 /** The largest positive M/N ≤ 1/S floor with N ≤ N max; null when there is none. */

@@ -60,6 +60,11 @@ export interface Plan {
   achievedHz: Rational;
   /** achievedHz − targetHz, signed. */
   errorHz: Rational;
+  /**
+   * Set when the search stopped at its work limit before proving this plan the nearest (only on
+   * absurdly large divider × table domains): the best found, reported as such.
+   */
+  searchLimited?: true;
 }
 
 /** Divider jitter of a first-order accumulator fractional divider. All zero for F = 0. */

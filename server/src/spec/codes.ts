@@ -122,6 +122,11 @@ export const CODES = {
     title: 'Fractional divider chosen',
     help: 'Only a fractional divider meets the tolerance. Its sample periods alternate between I and I+1 system clocks, which adds divider jitter; the message names its RMS and peak-to-peak time-interval error.',
   },
+  'search-limit': {
+    severity: 'warning',
+    title: 'Plan search stopped at its work limit',
+    help: 'The divider and table-length ranges of this clock file span a domain so large that the plan search stopped at its work limit; the plan shown is the best found, not proven the nearest. Narrow divider.integer or memory.table-length (or use fewer fraction bits) to get a proven optimum in milliseconds.',
+  },
   'no-plan': {
     severity: 'error',
     title: 'No plan possible',

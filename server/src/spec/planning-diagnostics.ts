@@ -57,6 +57,10 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
     push('fractional-plan', pinned ? planRange('divider') : (r.jitter ?? r.frequency ?? draft.nameRange), `${why}: ${planText(plan)} with ${jitterText(plan)} — ${fix}.`);
   }
 
+  if (plan.searchLimited) {
+    push('search-limit', draft.nameRange, `The plan search stopped at its work limit on this clock's very large divider × table-length domain, so ${planText(plan)} is the best found, not proven the nearest: narrow divider.integer or table-length for a proven optimum.`);
+  }
+
   if (!plan.seam.ok) {
     const cause =
       plan.seam.cause === 'fractional-cycles'

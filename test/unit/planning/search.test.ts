@@ -128,3 +128,32 @@ describe('worked examples of the trade', () => {
     expect(plan?.achievedHz).toEqual(parseDecimal('43994140.625'));
   });
 });
+
+describe('work limit (robustness: absurd domains never hang)', () => {
+  // A 32-bit divider with 64 Mi-sample tables at a millihertz target: the walk would run for
+  // minutes; the search stops at its step budget and says so.
+  const hw: Hardware = {
+    systemClockHz: parseDecimal('3999999999')!,
+    divider: { integerMin: 1, integerMax: 2 ** 32, fractionBits: 16 },
+    dac: { bits: 24, sampleBytes: 4, fullScaleV: 3.3, maxSampleRateHz: rat(4_000_000_000) },
+    memory: { budgetBytes: 2 ** 30, tableLengthMin: 1, tableLengthMax: 2 ** 26, powerOfTwo: false },
+  };
+  const req = { targetHz: parseDecimal('0.0012345678901')!, minSamplesPerCycle: rat(8) };
+
+  it('stops within seconds and marks the plan as the best found, not proven nearest', () => {
+    const start = performance.now();
+    const jitterFree = nearestJitterFree(hw, req);
+    const fractional = bestFractional(hw, req);
+    expect(performance.now() - start).toBeLessThan(30_000);
+    expect(jitterFree?.searchLimited).toBe(true);
+    expect(fractional?.searchLimited).toBe(true);
+    // derived: whatever was found is still a valid plan, f_out = f_sys·M/(D·N) within 1 ppm here.
+    expect(Math.abs(Number(jitterFree!.errorHz.num) / Number(jitterFree!.errorHz.den))).toBeLessThan(1e-9);
+  });
+
+  it('a realistic domain never reaches the limit (16-bit divider, 32 Ki-sample tables)', () => {
+    const board: Hardware = { ...hw, divider: { integerMin: 1, integerMax: 65535, fractionBits: 8 }, memory: { ...hw.memory, tableLengthMax: 32768 } };
+    expect(nearestJitterFree(board, req)?.searchLimited).toBeUndefined();
+    expect(bestFractional(board, req)?.searchLimited).toBeUndefined();
+  });
+});
