@@ -16,6 +16,14 @@ export function gcd(a: bigint, b: bigint): bigint {
   return a;
 }
 
+/** Greatest common divisor of two whole numbers below 2^53 (the hot loops' version of gcd). */
+export function gcdNumber(a: number, b: number): number {
+  a = Math.abs(a);
+  b = Math.abs(b);
+  while (b !== 0) [a, b] = [b, a % b];
+  return a;
+}
+
 export function rat(num: bigint | number, den: bigint | number = 1n): Rational {
   let n = BigInt(num);
   let d = BigInt(den);

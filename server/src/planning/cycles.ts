@@ -19,7 +19,8 @@
 import { div, rat, toNumber } from '../../../shared-schema/src/rational';
 import { type Domain, maxCycles } from './domain';
 import { DIVISOR_REACH } from './divisors';
-import { gcdNumber, offerPlansOfRatio } from './exact';
+import { gcdNumber } from '../../../shared-schema/src/rational';
+import { offerPlansOfRatio } from './exact';
 import { ProductHeap } from './heap';
 import type { Leader } from './rank';
 

@@ -8,7 +8,7 @@
 // reduces to: (fractional) the quietest F, then the smallest J, then the shortest N.
 // So each divisor n contributes its best multiple of b/n, and the Leader keeps the best of those.
 
-import { div } from '../../../shared-schema/src/rational';
+import { div, gcdNumber } from '../../../shared-schema/src/rational';
 import { type Domain, maxCycles } from './domain';
 import { DIVISOR_REACH, divisorsInRange } from './divisors';
 import type { Leader } from './rank';
@@ -94,14 +94,4 @@ export function quietestMultiple(scale: number, g: number, t0: number, t1: numbe
     }
   }
   return best;
-}
-
-/** Greatest common divisor of two whole numbers below 2^53. */
-export function gcdNumber(x: number, y: number): number {
-  while (y !== 0) {
-    const t = x % y;
-    x = y;
-    y = t;
-  }
-  return x;
 }

@@ -6,15 +6,11 @@
 // grid of the mean period I + p. Over one pattern (L = modulus/gcd(F, modulus) periods) those
 // fractions take each value 0, 1/L, …, (L−1)/L once, which gives the TIE figures below.
 
-import { type Rational, rat, add, div, toNumber } from '../../../shared-schema/src/rational';
+import { type Rational, rat, add, div, gcdNumber, toNumber } from '../../../shared-schema/src/rational';
 import type { Jitter, Plan } from './types';
 
 const SPURS = 4;
 
-function gcdNumber(a: number, b: number): number {
-  while (b !== 0) [a, b] = [b, a % b];
-  return Math.abs(a);
-}
 
 /**
  * Jitter of a divider I + F/modulus on a system clock of period tSysS, for an output at fOutHz
@@ -86,3 +82,37 @@ export function dividerJitter(systemClockHz: Rational, plan: Plan): Jitter {
     fSHz,
   );
 }
+
+// The pattern itself, period by period, for pictures of it. Over one pattern the accumulator visits
+// every multiple of g = gcd(F, modulus) below the modulus once, and edge n lies
+// (acc_0 − acc_n)/modulus clocks from the grid n·D (derived: each period adds
+// I + F/modulus − Δacc/modulus). So TIE_n = (mean(acc) − acc_n)/modulus · T_sys with
+// mean(acc) = g(L − 1)/2; no walk over a long pattern is needed to align the grid.
+
+export interface PeriodPattern {
+  /** true = a long period (I + 1 clocks). */
+  long: boolean[];
+  /** TIE of edges 0…shown in system clocks (edge n ends period n − 1). */
+  tieClocks: number[];
+  patternLength: number;
+}
+
+/** The accumulator's first `shown` periods; modulus is 2^k for a binary fraction. */
+export function periodPattern(fraction: number, modulus: number, shown: number): PeriodPattern {
+  const g = gcdNumber(fraction, modulus);
+  const patternLength = modulus / g;
+  const meanAcc = (g * (patternLength - 1)) / 2;
+  const count = Math.min(shown, patternLength);
+  const long: boolean[] = [];
+  const tieClocks: number[] = [meanAcc / modulus];
+  let acc = 0;
+  for (let n = 0; n < count; n++) {
+    acc += fraction;
+    const overflow = acc >= modulus;
+    if (overflow) acc -= modulus;
+    long.push(overflow);
+    tieClocks.push((meanAcc - acc) / modulus);
+  }
+  return { long, tieClocks, patternLength };
+}
+

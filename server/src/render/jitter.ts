@@ -1,13 +1,10 @@
 // The sample clock of a fractional plan: which sample periods are I and which I+1 system clocks
 // (a first-order accumulator adds F each period and takes the long period on overflow), and the
-// time-interval error of each sample edge against the ideal grid aligned to the mean.
-//
-// Over one pattern the accumulator visits every multiple of g = gcd(F, 2^k) below 2^k once, and
-// edge n lies (acc_0 − acc_n)/2^k clocks from the grid n·D (derived: each period adds
-// I + F/2^k − Δacc/2^k). So TIE_n = (mean(acc) − acc_n)/2^k · T_sys with mean(acc) = g(L − 1)/2;
-// no walk over a long pattern is needed to align the grid.
+// time-interval error of each sample edge against the ideal grid aligned to the mean. The
+// pattern comes from the engine (planning/jitter.ts); this file only draws it.
 
 import { toNumber } from '../../../shared-schema/src/rational';
+import { periodPattern } from '../planning/jitter';
 import type { PlanFigures } from '../planning/types';
 import { frame, type Box } from './frame';
 import { palette } from './palette';
@@ -20,38 +17,6 @@ const PERIODS: Box = { left: 58, top: 32, width: 488, height: 44 };
 const TIE: Box = { left: 58, top: 96, width: 488, height: 112 };
 /** Periods drawn at most; a longer pattern shows its beginning. */
 export const JITTER_SHOWN = 64;
-
-function gcdNum(a: number, b: number): number {
-  while (b) [a, b] = [b, a % b];
-  return a;
-}
-
-export interface PeriodPattern {
-  /** true = a long period (I + 1 clocks). */
-  long: boolean[];
-  /** TIE of edges 0…shown in system clocks (edge n ends period n − 1). */
-  tieClocks: number[];
-  patternLength: number;
-}
-
-/** The accumulator's first `shown` periods; modulus is 2^k for a binary fraction. */
-export function periodPattern(fraction: number, modulus: number, shown: number): PeriodPattern {
-  const g = gcdNum(fraction, modulus);
-  const patternLength = modulus / g;
-  const meanAcc = (g * (patternLength - 1)) / 2;
-  const count = Math.min(shown, patternLength);
-  const long: boolean[] = [];
-  const tieClocks: number[] = [meanAcc / modulus];
-  let acc = 0;
-  for (let n = 0; n < count; n++) {
-    acc += fraction;
-    const overflow = acc >= modulus;
-    if (overflow) acc -= modulus;
-    long.push(overflow);
-    tieClocks.push((meanAcc - acc) / modulus);
-  }
-  return { long, tieClocks, patternLength };
-}
 
 export function jitterSvg(figures: PlanFigures): string | null {
   if (figures.jitterFree || figures.dividerFraction === 0 || figures.fractionBits <= 0) return null;

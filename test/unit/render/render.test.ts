@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { rat } from '../../../shared-schema/src/rational';
 import { buildTable } from '../../../server/src/planning/table';
-import { jitterSvg, memorySvg, periodPattern, seamSvg, svgDataUri, waveformSvg } from '../../../server/src/render';
+import { jitterSvg, memorySvg, seamSvg, svgDataUri, waveformSvg } from '../../../server/src/render';
+import { periodPattern } from '../../../server/src/planning/jitter';
 import { byClass, parseXml } from './xml';
 import { dac12, dac8, figures, wave } from './plans';
 
