@@ -3,7 +3,7 @@
 # editor builds against (apt, as root), and a tools folder of its own (.e2e-tools/, git-ignored)
 # holding Node 24, the editor (code-server) and playwright-core. The extension's own dependencies
 # are never touched. Idempotent: each step is skipped when its result is already there, so a second
-# run takes about a second. See ../shared/E2E.md for why this shape was chosen.
+# run takes about a second. test/e2e/README.md says why this shape was chosen.
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"

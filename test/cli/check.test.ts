@@ -78,7 +78,7 @@ describe('the demo (examples/)', () => {
         if (plan === null) continue;
         for (const key of numeric) expect(typeof plan[key], `${o.name}.${key}`).toBe('number');
         for (const key of ['jitterFree', 'seamOk']) expect(typeof plan[key], `${o.name}.${key}`).toBe('boolean');
-        // f_out = f_sys·M/(D·N) with D = I + F/2^k (DESIGN.md Quantities; the definition of a divided clock).
+        // f_out = f_sys·M/(D·N) with D = I + F/2^k (docs/DESIGN.md "Quantities"; the definition of a divided clock).
         const d = plan.dividerInteger + plan.dividerFraction / 2 ** plan.fractionBits;
         expect(plan.achievedHz).toBeCloseTo((plan.systemClockHz * plan.cycles) / (d * plan.tableLength), 6);
         // Exact text agrees with the number; fraction.js is the outside oracle for exact parsing.
@@ -95,7 +95,7 @@ describe('the demo (examples/)', () => {
     expect(run.code).toBe(1);
     expect(run.stdout).toMatch(/^waveplan check FAILED: 2 files, \d+ outputs, 1 error, \d+ warnings \(report in /);
     const tool = path.join(ROOT, 'node_modules/@microsoft/sarif-multitool-linux/Sarif.Multitool');
-    // Its install script is skipped by npm 11; the run bit is all it would have set (TOOLCHAIN.md).
+    // Its install script is skipped by npm 11; the run bit is all it would have set (DEVELOPERS.md, "Toolchain notes").
     fs.chmodSync(tool, fs.statSync(tool).mode | 0o100);
     const reportFile = path.join(dir, 'report.sarif');
     const validate = spawnSync(tool, ['validate', out, '-o', reportFile], { encoding: 'utf8', timeout: 120_000 });
@@ -142,7 +142,7 @@ describe('figures in the JSON report', () => {
     expect(plan.errorPpm).toBeCloseTo(-549.31640625, 9);
     expect(plan.jitterFree).toBe(true);
     expect(plan.samplePeriodJitterRmsS).toBe(0);
-    // 131 whole cycles in an open table: the wrap is seamless (DESIGN.md, Seam).
+    // 131 whole cycles in an open table: the wrap is seamless (docs/DESIGN.md, "Seam").
     expect(plan.seamOk).toBe(true);
   });
 });

@@ -1,7 +1,7 @@
 // Reads the demo's own numbers so the suite follows the demo as it changes: the output with a
 // hand-pinned plan, and the frequency that plan must give, computed here with fraction.js (a
 // general-purpose exact-rational library, the oracle) from f_out = f_sys · M / (D · N)
-// (DESIGN.md "Quantities"; derived). The YAML is read with the `yaml` package.
+// (docs/DESIGN.md "Quantities"; derived). The YAML is read with the `yaml` package.
 
 import fs from 'node:fs';
 import path from 'node:path';

@@ -1,6 +1,7 @@
 // The browser-hosted editor's lifecycle for one end-to-end run: fresh user data, the packaged
 // extension installed into it, a workspace copy, code-server on a free loopback port, and a
-// clean shutdown of its whole process group. Layout and flags follow ../../../shared/E2E.md.
+// clean shutdown of its whole process group. Layout and flags: test/e2e/README.md
+// ("How the editor is driven").
 
 import { spawn, execFileSync } from 'node:child_process';
 import fs from 'node:fs';

@@ -114,7 +114,7 @@ export async function editorChecks({ checks, page, url, shots, state }) {
   let pinned;
   await checks.run('annotations: the pinned output shows f_sys·M/(D·N) and its divider', async () => {
     pinned = pinnedOutput(state.workspace, WAVE);
-    // Oracle: fraction.js, f_out = f_sys · M / (D · N) (DESIGN.md "Quantities"; derived).
+    // Oracle: fraction.js, f_out = f_sys · M / (D · N) (docs/DESIGN.md "Quantities"; derived).
     const line = expected.diagnostics.find((d) => d.output === pinned.name)?.line;
     if (line) await goTo(page, line);
     const text = await annotationOf(page, pinned.name);
@@ -123,7 +123,7 @@ export async function editorChecks({ checks, page, url, shots, state }) {
     expect(shown, `no frequency in "${text}"`);
     expect(Math.abs(shown.hz - want) <= want * 5e-6, `shows ${shown.hz} Hz, fraction.js gives ${pinned.achievedHz.toFraction()} Hz: "${text}"`);
     expect(text.includes(`÷${pinned.divider}`), `does not show the pinned divider ÷${pinned.divider}: "${text}"`);
-    // An integer divider holds no fractional jitter (DESIGN.md: "With F = 0 the plan is jitter-free").
+    // An integer divider holds no fractional jitter (docs/DESIGN.md "Quantities": a plan is jitter-free when F = 0).
     expect(!/jitter/.test(text), `an integer divider shown with jitter: "${text}"`);
     return `${pinned.name}: "${text}"`;
   }, { needs: [DIAG] });
@@ -189,7 +189,7 @@ export async function editorChecks({ checks, page, url, shots, state }) {
   }, { needs: [DIAG] });
 }
 
-/** Ctrl+. on the finding (up to three tries, E2E.md), Enter on the first fix, save, then ask the checker. */
+/** Ctrl+. on the finding (up to three tries, test/e2e/README.md), Enter on the first fix, save, then ask the checker. */
 async function applyFirstFix(page, state, target) {
   const file = path.join(state.workspace, WAVE);
   const before = fs.readFileSync(file, 'utf8');

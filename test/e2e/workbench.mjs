@@ -1,6 +1,6 @@
 // Page-level moves in the browser-hosted editor. Every step waits on a condition in the page
 // (an element, a text, an attribute); none waits a fixed time. Selectors are those that held in
-// VS Code 1.139, recorded in ../../../shared/E2E.md.
+// VS Code 1.139, recorded in test/e2e/README.md ("How the editor is driven").
 
 /** Inlay hints and some labels render spaces as U+00A0; compare text with them normalised. */
 export function plain(text) {

@@ -58,7 +58,7 @@ async function run() {
   assert.equal(summary?.files, 2, `re-check covers both demo files: ${JSON.stringify(summary)}`);
 
   // The demo's pinned plan must show f_out = f_sys · M / (D · N), computed with fraction.js
-  // (DESIGN.md "Quantities"; derived) by the same helper the browser suite uses.
+  // (docs/DESIGN.md "Quantities"; derived) by the same helper the browser suite uses.
   const { pinnedOutput, shownHertz } = await import(pathToFileURL(path.join(__dirname, '../e2e/demo.mjs')).href);
   const pinned = pinnedOutput(folder.uri.fsPath, WAVE);
   const lines = doc.getText().split('\n');

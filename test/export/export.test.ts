@@ -84,7 +84,7 @@ describe('determinism', () => {
 });
 
 describe('what the files say', () => {
-  it('registers and constants of the fixture (f_out = f_sys·M/(D·N), DESIGN.md; derived)', async () => {
+  it('registers and constants of the fixture (f_out = f_sys·M/(D·N), docs/DESIGN.md; derived)', async () => {
     const { dir } = await exportTo(TONE_LAB);
     const h = fs.readFileSync(path.join(dir, 'c/tone_lab.h'), 'utf8');
     // 96 MHz / 8 = 12 MHz; 128 samples, 1 cycle → 93.75 kHz exactly (derived).
@@ -93,7 +93,7 @@ describe('what the files say', () => {
     expect(h).toMatch(/#define TONE_LAB_PILOT_SAMPLE_RATE_HZ +12000000\.0 /);
     expect(h).toMatch(/#define TONE_LAB_PILOT_FREQUENCY_HZ +93750\.0 /);
     expect(h).toMatch(/#define TONE_LAB_PILOT_TABLE_ALIGN +256u /); // 128 samples × 2 bytes, a DMA ring
-    // The fractional plan: raw = I·2^k + F (DESIGN.md, D = I + F/2^k).
+    // The fractional plan: raw = I·2^k + F (docs/DESIGN.md, D = I + F/2^k).
     const plans = JSON.parse(fs.readFileSync(path.join(dir, 'plans.json'), 'utf8'));
     const odd = plans.specs[0].outputs.find((o: { name: string }) => o.name === 'odd-tone');
     const raw = odd.plan.dividerInteger * 2 ** odd.plan.fractionBits + odd.plan.dividerFraction;

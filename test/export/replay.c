@@ -6,8 +6,8 @@
  * and linked with the exported <prefix>.c. It uses only what the header declares.
  *
  * The divider model counts system clocks: a first-order accumulator adds F every sample period
- * and, when it reaches 2^k, wraps and makes that period I + 1 clocks instead of I (DESIGN.md,
- * "Quantities"). The stream plays table[s mod N] from the start of period s (zero-order hold).
+ * and, when it reaches 2^k, wraps and makes that period I + 1 clocks instead of I (docs/DESIGN.md,
+ * "Divider jitter"). The stream plays table[s mod N] from the start of period s (zero-order hold).
  *
  * The frequency is measured from the stream: rising crossings of the table's mid level, counted
  * from the first one to the crossing at the same table index a whole number of passes later,

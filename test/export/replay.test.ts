@@ -72,7 +72,7 @@ beforeAll(async () => {
   }
 }, 120_000);
 
-// The four shapes as DESIGN.md and the planning brief define them (phase in cycles, [0, 1)).
+// The four shapes as docs/DESIGN.md ("Unit waveforms") defines them (phase in cycles, [0, 1)).
 function unit(shape: JsonOutput['shape'], phase: number, duty: number): number {
   if (shape === 'sine') return Math.sin(2 * Math.PI * phase);
   if (shape === 'square') return phase < duty ? 1 : -1;
@@ -87,7 +87,7 @@ describe.each(cases.map(([name]) => name))('%s', (name) => {
     for (const o of outputs) expect(measured.has(o.identifier), o.name).toBe(true);
   });
 
-  it('measured frequency = achieved frequency within the tolerance (f_out = f_s·M/N, DESIGN.md)', () => {
+  it('measured frequency = achieved frequency within the tolerance (f_out = f_s·M/N, docs/DESIGN.md)', () => {
     const { outputs, measured } = results.get(name)!;
     for (const o of outputs) {
       const m = measured.get(o.identifier)!;

@@ -1,5 +1,5 @@
 // The HTML report opened in headless Chromium (Debian's /usr/bin/chromium through playwright-core,
-// flags from E2E.md): every picture decodes, the page logs no errors and fetches nothing from
+// flags as in test/e2e/README.md): every picture decodes, the page logs no errors and fetches nothing from
 // the network; a screenshot goes to docs/report.png.
 import * as fs from 'node:fs';
 import * as path from 'node:path';

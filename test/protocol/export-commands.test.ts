@@ -153,7 +153,7 @@ describe('waveplan.exportC', () => {
     // FIPS 180-4 sha256 by node:crypto, over spec text, a NUL byte and clock text (the header's own wording).
     const expected = createHash('sha256').update(spec).update('\0').update(clock).digest('hex');
     expect(header).toContain(`sha256: ${expected}`);
-    // f_out = f_sys·M/(D·N) (DESIGN.md quantities; the table-playback relation, derived): with the
+    // f_out = f_sys·M/(D·N) (docs/DESIGN.md "Quantities"; the table-playback relation, derived): with the
     // edited 192 MHz clock and 187.5 kHz target, the header's I, N, M must satisfy it exactly.
     // (derived by hand: 192 MHz / 187.5 kHz = 1024 = D·N/M, so e.g. D = 16, N = 64, M = 1.)
     const define = (name: string) => BigInt(new RegExp(`#define TONE_LAB_PILOT_${name}\\s+(\\d+)u`).exec(header)![1]);

@@ -1,6 +1,6 @@
 // The built server over stdio: capabilities, diagnostics, inlay hints, hover, outline, definition,
 // completion. Expected plans come from plain enumeration of the small fixture board (the oracle
-// of record for plan search, see REFERENCES.md) or are derived by hand in the comments.
+// of record for plan search, see docs/REFERENCES.md) or are derived by hand in the comments.
 
 import * as fs from 'node:fs';
 import { spawnSync } from 'node:child_process';
@@ -67,7 +67,7 @@ describe('language server over stdio', () => {
     const oot = published.diagnostics.find((d) => d.code === 'out-of-tolerance')!;
     expect(oot.range.start.line).toBeGreaterThanOrEqual(lineOf(labText, 'beacon:'));
     expect(oot.range.start.line).toBeLessThan(lineOf(labText, 'legacy-chirp:'));
-    // The cycles value 2.5 is not whole, so the wrap glitches (DESIGN.md, "Seam").
+    // The cycles value 2.5 is not whole, so the wrap glitches (docs/DESIGN.md, "Seam").
     const seam = published.diagnostics.find((d) => d.code === 'seam-glitch')!;
     expect(seam.range.start.line).toBeGreaterThanOrEqual(lineOf(labText, 'legacy-chirp:'));
   });
@@ -150,7 +150,7 @@ describe('language server over stdio', () => {
     expect(symbols.map((s) => s.name)).toEqual(['probe-drive', 'beacon', 'legacy-chirp']);
     const key = (p: { line: number; character: number }) => p.line * 1e6 + p.character;
     for (const s of symbols) {
-      // VS Code drops the outline when a selectionRange leaves its range (TOOLCHAIN.md).
+      // VS Code drops the outline when a selectionRange leaves its range (DEVELOPERS.md, "Toolchain notes").
       expect(key(s.selectionRange.start)).toBeGreaterThanOrEqual(key(s.range.start));
       expect(key(s.selectionRange.end)).toBeLessThanOrEqual(key(s.range.end));
     }

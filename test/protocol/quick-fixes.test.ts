@@ -1,6 +1,6 @@
 // Quick fixes applied to the text and re-checked by the server. The expected neighbours of the
 // target come from plain enumeration of every (divider, table length, cycles) on the small
-// fixture board — the oracle of record for plan search (REFERENCES.md, "Best rational approximation").
+// fixture board — the oracle of record for plan search (docs/REFERENCES.md, "Best rational approximation").
 
 import * as fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

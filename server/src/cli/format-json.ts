@@ -1,4 +1,4 @@
-// The checker's machine-readable report. Field names follow the Quantities of DESIGN.md and the
+// The checker's machine-readable report. Field names follow the Quantities of docs/DESIGN.md and the
 // planning types; exact rationals become JSON numbers plus an `…Exact` text so a consumer can
 // recover the exact value: the full decimal when one exists ("3997802.734375"), else "num/den".
 

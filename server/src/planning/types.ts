@@ -1,4 +1,4 @@
-// The vocabulary of the planning engine (see ../shared/DESIGN.md, "Quantities").
+// The vocabulary of the planning engine (see docs/DESIGN.md, "Quantities").
 // Pure data: no editor, LSP, YAML or file-system types ever appear here.
 
 import type { Rational } from '../../../shared-schema/src/rational';

@@ -10,7 +10,7 @@ import type { Hardware, OutputRequest } from '../../../server/src/planning/types
 
 const hz = (text: string): Rational => parseDecimal(text)!;
 
-// The rig of the spec sketch (SPEC-SKETCH.md): 150 MHz, 50 MHz DAC, 48 KiB, tables 32…16384.
+// An invented rig: 150 MHz, 50 MHz DAC, 48 KiB, tables 32…16384.
 const rig: Hardware = {
   systemClockHz: hz('150e6'),
   divider: { integerMin: 1, integerMax: 65535, fractionBits: 8 },
@@ -28,7 +28,7 @@ const request = (target: string, extra: Partial<OutputRequest> = {}): OutputRequ
 });
 
 describe('verdicts', () => {
-  it('100 kHz on the sketch rig is exact and jitter-free: divider 3, 500 samples, 1 cycle, 1000 B (SPEC-SKETCH.md, derived: 150 MHz/3/500)', () => {
+  it('100 kHz on the rig is exact and jitter-free: divider 3, 500 samples, 1 cycle, 1000 B (derived: 150 MHz/3/500)', () => {
     const p = planOutputUncached(rig, request('100e3'));
     expect(p.verdict).toBe('exact');
     expect(p.plan).toMatchObject({ dividerInteger: 3, dividerFraction: 0, tableLength: 500, tableBytes: 1000, jitterFree: true });
@@ -39,7 +39,7 @@ describe('verdicts', () => {
     expect(p.withinTolerance).toBe(true);
   });
 
-  it('a pinned plan is checked as written: 150 MHz/125/1000 = 1.2 kHz exactly (SPEC-SKETCH.md, derived)', () => {
+  it('a pinned plan is checked as written: 150 MHz/125/1000 = 1.2 kHz exactly (derived)', () => {
     const pinned = { dividerInteger: 125, dividerFraction: 0, tableLength: 1000, cycles: rat(1), span: 'open' as const };
     const p = planOutputUncached(rig, request('1200', { pinned }));
     expect(p.verdict).toBe('pinned');

@@ -75,10 +75,10 @@ describe('Circuit Cellar #296 (EQ answers): 16 MHz ÷ 4⅓ → periods 4, 4, 5',
     expect(simulate(4, 1, 3, tSys).tieMaxAbs * 1e9).toBeCloseTo(20.833, 2);
     expect((j.tiePkPkS / 2) * 1e9).toBeCloseTo(20.833, 2);
   });
-  it('RMS period jitter sqrt(2/9)·62.5 ns = 29.46 ns (computed from the formula in REFERENCES.md)', () => {
+  it('RMS period jitter sqrt(2/9)·62.5 ns = 29.46 ns (computed from the formula, docs/REFERENCES.md)', () => {
     expect(j.samplePeriodJitterRmsS * 1e9).toBeCloseTo(29.46, 2);
   });
-  it('spurs at multiples of f_s/3 (DESIGN.md: f_s·gcd(F, modulus)/modulus)', () => {
+  it('spurs at multiples of f_s/3 (docs/DESIGN.md: f_s·gcd(F, modulus)/modulus)', () => {
     expect(j.spurOffsetsHz.map((x) => x / (16e6 / (13 / 3) / 3))).toEqual([1, 2]);
   });
 });

@@ -10,7 +10,7 @@ import type { Hardware, Shape, Waveform } from '../../../server/src/planning/typ
 const dac12: Hardware['dac'] = { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: rat(1e6) };
 const wave = (shape: Shape, amplitudeVpp = 3, duty = 0.5): Waveform => ({ shape, duty, amplitudeVpp, offsetV: 1.65 });
 
-describe('unit waveforms (definitions in DESIGN.md / the task brief)', () => {
+describe('unit waveforms (definitions in docs/DESIGN.md, "Unit waveforms")', () => {
   it('sine = sin(2π·phase): 0, 1, 0, −1 at quarter cycles', () => {
     expect([0, 0.25, 0.5, 0.75].map((p) => unitWave('sine', 0.5, p))).toEqual([
       0, 1, Math.sin(Math.PI), Math.sin(1.5 * Math.PI),

@@ -1,6 +1,6 @@
 // Hand-built plan figures for the renderer tests. The achieved frequency is computed exactly from
-// f_out = f_sys · M / (D · N) (DESIGN.md, "Quantities"); jitter numbers use the closed forms of a
-// first-order accumulator (REFERENCES.md, "Jitter": RMS period jitter Ts·sqrt(p(1 − p)), derived).
+// f_out = f_sys · M / (D · N) (docs/DESIGN.md, "Quantities"); jitter numbers use the closed forms of a
+// first-order accumulator (docs/REFERENCES.md, "Jitter": RMS period jitter Ts·sqrt(p(1 − p)), derived).
 
 import { div, mul, rat, sub, toNumber, type Rational } from '../../../shared-schema/src/rational';
 import type { Hardware, PlanFigures, Seam, Waveform } from '../../../server/src/planning/types';

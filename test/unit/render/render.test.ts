@@ -70,7 +70,7 @@ describe('staircase (zero-order hold) step count', () => {
     expect(Array.from(buildTable(w, dac, 4, rat(1), 'open'))).toEqual([128, 255, 128, 0]);
   });
 
-  it('a long table is drawn as an envelope, bounded in size (hover limit 100 000 characters, TOOLCHAIN.md)', () => {
+  it('a long table is drawn as an envelope, bounded in size (hover limit 100 000 characters, DEVELOPERS.md)', () => {
     const fig = figures({ systemClockHz: 125_000_000, dividerInteger: 1, tableLength: 32768, cycles: rat(1), sampleBytes: 2 });
     for (const shape of shapes) {
       const svg = waveformSvg(fig, wave(shape, dac12), dac12, 'open');
@@ -135,12 +135,12 @@ describe('jitter picture', () => {
       }
       const mean = raw.slice(0, len).reduce((a, b) => a + b, 0) / len;
       for (let n = 0; n <= len; n++) expect(p.tieClocks[n]).toBeCloseTo(raw[n] - mean, 9);
-      // Long share p = F/2^k (DESIGN.md) over one whole pattern.
+      // Long share p = F/2^k (docs/DESIGN.md) over one whole pattern.
       expect(p.long.filter(Boolean).length / len).toBeCloseTo(f / m, 12);
     }
   });
 
-  it('draws one bar per period: a 1/4 fraction gives 1 long and 3 short (share F/2^k, DESIGN.md)', () => {
+  it('draws one bar per period: a 1/4 fraction gives 1 long and 3 short (share F/2^k, docs/DESIGN.md)', () => {
     const fig = figures({ dividerInteger: 7, dividerFraction: 1, fractionBits: 2, tableLength: 64, cycles: rat(1) });
     const x = parseXml(jitterSvg(fig)!);
     expect(byClass(x, 'wp-long')).toHaveLength(1);
