@@ -26,8 +26,12 @@ describe('quantities as printed', () => {
     expect(formatSignedHz(sub(rat(150_000_000n * 738n, 379n * 7279n), rat(40127)))).toBe('≈-38.79 µHz');
     expect(formatSignedHz(rat(0))).toBe('0 Hz');
   });
-  it('prints ppm with four significant digits: (3.997802734375 − 4)/4 · 1e6 = −549.31640625 ppm (derived)', () => {
-    expect(formatPpm(-549.31640625)).toBe('-549.3 ppm');
+  it('prints relative errors with three significant digits: (3.997802734375 − 4)/4 · 1e6 = −549.31640625 ppm (derived)', () => {
+    expect(formatPpm(-549.31640625)).toBe('-549 ppm');
+    // Never an exponent, and whole-number digits are kept: 23440 ppm stays 23440 (derived).
+    expect(formatPpm(-23440)).toBe('-23440 ppm');
+    expect(formatPpm(3.5e-7)).toBe('+350 ppq');
+    expect(formatPpm(-1.2345e-12)).toBe('-0.00123 ppq');
     expect(formatPpm(0)).toBe('0 ppm');
     expect(formatPpm(12.5)).toBe('+12.5 ppm');
   });
@@ -46,7 +50,7 @@ describe('text report', () => {
     expect(rows[1].indexOf('4096 × 131')).toBe(tableColumn);
     expect(rows[2].indexOf('256 × 16')).toBe(tableColumn);
     expect(rows[1]).toContain('3.997802734375 MHz');
-    expect(rows[1]).toContain('-549.3 ppm');
+    expect(rows[1]).toContain('-549 ppm');
     expect(rows[2]).toContain('÷1+244/256');
     // 8 ns·sqrt(244·12)/256 = 1.6909 ns (derived from RMS = T_sys·sqrt(p(1−p))).
     expect(rows[2]).toContain('rms 1.69 ns, TIE 1.2 ns');

@@ -96,18 +96,19 @@ describe('language server over stdio', () => {
     const beacon = hints.find((h) => h.position.line === lineOf(labText, 'beacon:'))!;
     // derived by enumeration: the nearest jitter-free plan is 120 MHz / 13 × 2 / 499 = 240 000 000/6487 Hz
     // ≈ 36.9971 kHz, −79.2 ppm from 37 kHz.
-    expect(beacon.label).toBe('≈ 36.9971 kHz · −79.2 ppm · ÷13 · seam ok');
+    expect(beacon.label).toBe('≈36.9971 kHz · -79.2 ppm · ÷13 · seam ok');
     // The tooltip repeats the whole annotation, which the editor may truncate.
-    expect(beacon.tooltip).toContain('≈ 36.9971 kHz · −79.2 ppm · ÷13 · seam ok');
+    expect(beacon.tooltip).toContain('≈36.9971 kHz · -79.2 ppm · ÷13 · seam ok');
   });
 
-  it('writes errors below 0.01 ppm in ppb so the annotation stays short (1 ppm = 1000 ppb, SI)', async () => {
-    const { compactPpm } = await import('../../server/src/lsp/inlay-hints');
-    expect(compactPpm(-0.0009665763)).toBe('−0.967 ppb');
-    expect(compactPpm(0.000155)).toBe('+0.155 ppb');
-    expect(compactPpm(0.0821)).toBe('+0.0821 ppm');
-    expect(compactPpm(-79.2)).toBe('−79.2 ppm');
-    expect(compactPpm(0)).toBe('0 ppm');
+  it('writes errors in the unit of ppm, ppb, ppt that puts a digit before the point (1 ppm = 1000 ppb = 10^6 ppt, SI)', async () => {
+    const { formatPpm } = await import('../../server/src/cli/units');
+    expect(formatPpm(-0.0009665763)).toBe('-967 ppt');
+    expect(formatPpm(-0.0019665763)).toBe('-1.97 ppb');
+    expect(formatPpm(0.000155)).toBe('+155 ppt');
+    expect(formatPpm(0.0821)).toBe('+82.1 ppb');
+    expect(formatPpm(-79.2)).toBe('-79.2 ppm');
+    expect(formatPpm(0)).toBe('0 ppm');
   });
 
   it('shows the plan card with decodable SVG pictures on an output name', async () => {

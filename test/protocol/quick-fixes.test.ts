@@ -104,7 +104,7 @@ describe('quick fixes', () => {
     const fractional = actions.find((a) => a.title.startsWith('Allow a fractional divider'));
     // Enumeration with 4 fraction bits (D = J/16): the best plan is −11.7 ppm, inside 20 ppm.
     expect(fractional).toBeDefined();
-    expect(fractional!.title).toMatch(/÷\d+\+\d+\/16 .* rms period jitter/);
+    expect(fractional!.title).toMatch(/÷\d+\+\d+\/16, N = \d+, M = \d+, [\d.]+ ns rms period jitter$/);
     const { text, codes } = await applyAndRecheck(original, fractional!);
     expect(text.split('\n')[lineOf(original, 'jitter: forbid')]).toBe('    jitter: allow');
     expect(codes).not.toContain('out-of-tolerance');

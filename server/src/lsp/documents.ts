@@ -123,6 +123,12 @@ export class SpecDocuments {
     return this.analyze(path, text, this.host(new Set()));
   }
 
+  /** The analysis of an open document's text with a quick fix applied (its preview); never cached. */
+  analyzeEdited(uri: string, text: string): Analysis | undefined {
+    if (!this.documents.get(uri)) return undefined;
+    return this.analyze(uriToPath(uri), text, this.host(new Set()));
+  }
+
   /** Drops cached analyses that read `path`, so the next request re-analyses them. */
   invalidateReaders(path: string): string[] {
     const dropped: string[] = [];

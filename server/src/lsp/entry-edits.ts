@@ -6,7 +6,13 @@ import type { TextDocument } from 'vscode-languageserver-textdocument';
 import type { OutputAnalysis } from '../spec/types';
 
 function lineText(doc: TextDocument, line: number): string {
-  return doc.getText({ start: { line, character: 0 }, end: { line: line + 1, character: 0 } }).replace(/\r?\n$/, '');
+  return doc.getText({ start: { line, character: 0 }, end: { line: line + 1, character: 0 } }).replace(/(?:\r\n|\r|\n)$/, '');
+}
+
+/** The file's own line break, so an added line keeps CRLF or CR files as they are. */
+export function lineBreak(doc: TextDocument): string {
+  const m = /\r\n|\r|\n/.exec(doc.getText());
+  return m ? m[0] : '\n';
 }
 
 /** Replaces the written value of `key` with `text`; undefined when the entry has no such key. */
@@ -31,8 +37,8 @@ export function addKey(doc: TextDocument, output: OutputAnalysis, key: string, v
   // A block value's range can end at column 0 of the next line; that line is not the entry's.
   if (last.character === 0 && last.line > first.line) last = { line: last.line - 1, character: 0 };
   const indent = /^\s*/.exec(lineText(doc, first.line))?.[0] ?? '  ';
-  const eol = { line: last.line, character: lineText(doc, last.line).length };
-  return { range: { start: eol, end: eol }, newText: `\n${indent}${key}: ${value}` };
+  const end = { line: last.line, character: lineText(doc, last.line).length };
+  return { range: { start: end, end }, newText: `${lineBreak(doc)}${indent}${key}: ${value}` };
 }
 
 /** Sets `key` to `value`: in place when written, added to the entry otherwise. */

@@ -1,48 +1,18 @@
 // One compact line after each output's name: what the plan achieves, read off the analysis.
-// e.g. "≈ 99.998 kHz · −19.5 ppm · ÷3 · seam ok". No planning happens here.
+// e.g. "≈99.998 kHz · -19.5 ppm · ÷3 · seam ok". No planning happens here.
 
 import { InlayHintKind, type InlayHint, type Range } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { abs, eq, fromNumber, mul, parseDecimal, toNumber, type Rational } from '../../../shared-schema/src/rational';
 import type { PlanFigures } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
-import { formatDivider, formatSeconds } from '../cli/units';
+import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds } from '../cli/units';
 import { VERDICT_WORDS } from './plan-card';
 
-const PREFIXES: ReadonlyArray<[string, number]> = [
-  ['GHz', 1e9],
-  ['MHz', 1e6],
-  ['kHz', 1e3],
-  ['Hz', 1],
-  ['mHz', 1e-3],
-];
-
-/** Six significant digits; "≈" marks a figure that rounding changed. */
-export function compactHz(hz: Rational): string {
-  const value = toNumber(abs(hz));
-  const [unit, scale] = PREFIXES.find(([, s]) => value >= s) ?? PREFIXES[PREFIXES.length - 1];
-  const shown = Number((value / scale).toPrecision(6));
-  const back = parseDecimal(String(shown));
-  const exact = back !== undefined && eq(mul(back, fromNumber(scale)), abs(hz));
-  return `${exact ? '' : '≈ '}${shown} ${unit}`;
-}
-
-/**
- * Signed error with a real minus sign and three significant digits, in ppb below 0.01 ppm so a
- * tiny error stays short (the editor truncates long annotations, 43 characters by default).
- */
-export function compactPpm(ppm: number): string {
-  if (ppm === 0) return '0 ppm';
-  const ppb = Math.abs(ppm) < 0.01;
-  const shown = Number((Math.abs(ppm) * (ppb ? 1000 : 1)).toPrecision(3));
-  return `${ppm < 0 ? '−' : '+'}${shown} ${ppb ? 'ppb' : 'ppm'}`;
-}
-
 export function hintText(plan: PlanFigures): string {
-  const parts = [compactHz(plan.achievedHz), compactPpm(plan.errorPpm), formatDivider(plan)];
+  const parts = [compactHz(plan.achievedHz), formatPpm(plan.errorPpm), formatDivider(plan)];
   // RMS sample-period jitter; the hover card gives the peak-to-peak and TIE figures.
   if (!plan.jitterFree) parts.push(`jitter ${formatSeconds(plan.jitter.samplePeriodJitterRmsS)}`);
-  parts.push(plan.seam.ok ? 'seam ok' : `seam jump ${Number(plan.seam.jumpLsb.toPrecision(3))} LSB`);
+  parts.push(plan.seam.ok ? 'seam ok' : `seam jump ${formatLsb(plan.seam.jumpLsb)}`);
   return parts.join(' · ');
 }
 

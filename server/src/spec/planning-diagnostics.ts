@@ -2,7 +2,7 @@
 // its jitter, no plan at all, a broken seam, samples per cycle, a table over the budget.
 
 import { NYQUIST_SAMPLES_PER_CYCLE } from '../../../shared-schema/src/defaults';
-import { formatBytes, formatHz, formatSeconds } from '../../../shared-schema/src/quantity-format';
+import { formatBytes, formatHz, formatLsb, formatPpm, formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { type Rational, cmp, div, isInteger, rat, toDecimal } from '../../../shared-schema/src/rational';
 import type { Hardware, OutputPlanning, PlanFigures } from '../planning/types';
 import { type Code } from './codes';
@@ -18,12 +18,10 @@ export function dividerText(p: { dividerInteger: number; dividerFraction: number
 
 const ratText = (r: Rational): string => (isInteger(r) ? r.num.toString() : toDecimal(r, 6));
 
-const ppmText = (ppm: number): string => `${ppm > 0 ? '+' : ppm < 0 ? '−' : '±'}${Number(Math.abs(ppm).toPrecision(4))} ppm`;
-
-/** "divider 3, 500 samples, 1 cycle → 100 kHz (±0 ppm)". */
+/** "divider 3, 500 samples, 1 cycle → 100 kHz (0 ppm)". */
 export function planText(p: PlanFigures): string {
   const cycles = ratText(p.cycles);
-  return `divider ${dividerText(p)}, ${p.tableLength} samples, ${cycles} cycle${cycles === '1' ? '' : 's'} → ${formatHz(p.achievedHz)} (${ppmText(p.errorPpm)})`;
+  return `divider ${dividerText(p)}, ${p.tableLength} samples, ${cycles} cycle${cycles === '1' ? '' : 's'} → ${formatHz(p.achievedHz)} (${formatPpm(p.errorPpm)})`;
 }
 
 const jitterText = (p: PlanFigures): string =>
@@ -72,7 +70,7 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
     // A whole-table fault (fractional cycles, a repeated sample) is a glitch whatever the jump in
     // value: half a sine cycle wraps with no jump in value but turns the waveform back.
     const structural = plan.seam.cause !== 'quantisation';
-    push('seam-glitch', pinned ? planRange(cause.key) : draft.nameRange, `The table wrap breaks the waveform (${jump} LSB off its own next step) because ${cause.why}: ${cause.fix}.`, structural || jump >= 1 ? 'warning' : 'information');
+    push('seam-glitch', pinned ? planRange(cause.key) : draft.nameRange, `The table wrap breaks the waveform (${formatLsb(plan.seam.jumpLsb)} off its own next step) because ${cause.why}: ${cause.fix}.`, structural || jump >= 1 ? 'warning' : 'information');
   }
 
   const s = div(rat(BigInt(plan.tableLength)), plan.cycles);

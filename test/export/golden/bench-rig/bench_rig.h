@@ -7,7 +7,7 @@
  *
  * !!! UNCHECKED EXPORT: written with --force although the spec has 1 error. !!!
  * !!! Tables and dividers below may be wrong. Fix the spec and export again before shipping. !!!
- * !!! 62:16 out-of-tolerance: The best plan is divider 6, 81 samples, 4 cycles -> ~1.23456790123 MHz (+0.082 ppm), outside +/-0.05 ppm: widen the tolerance, allow jitter, or change the clock.
+ * !!! 62:16 out-of-tolerance: The best plan is divider 6, 81 samples, 4 cycles -> ~1.23456790123 MHz (+82 ppb), outside +/-0.05 ppm: widen the tolerance, allow jitter, or change the clock.
  */
 
 #ifndef WAVEPLAN_BENCH_RIG_H
@@ -70,7 +70,7 @@ extern const uint16_t bench_rig_quadrature_ref_table[BENCH_RIG_QUADRATURE_REF_TA
 /*
  * ultrasonic-carrier (bench_rig_ultrasonic_carrier): sine, 2.5 Vpp around 1.65 V
  * target   40.127 kHz +/- 4.0127 Hz
- * achieved ~40.1269999612 kHz (error ~-38.79 uHz, -0.0009666 ppm; verdict within-tolerance)
+ * achieved ~40.1269999612 kHz (error ~-38.79 uHz, -967 ppt; verdict within-tolerance)
  * f_s = 150 MHz / 379 = ~395.778364116 kHz; 7279 samples hold 738 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
@@ -127,7 +127,7 @@ extern const uint16_t bench_rig_audio_tone_table[BENCH_RIG_AUDIO_TONE_TABLE_LENG
 /*
  * counter-check (bench_rig_counter_check): sine, 3.29919 Vpp around 1.6496 V
  * target   1.2345678 MHz +/- 61.72839 mHz
- * achieved ~1.23456790123 MHz (error ~+101.2 mHz, +0.082 ppm; verdict out-of-tolerance)
+ * achieved ~1.23456790123 MHz (error ~+101.2 mHz, +82 ppb; verdict out-of-tolerance)
  * f_s = 150 MHz / 6 = 25 MHz; 81 samples hold 4 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
@@ -146,7 +146,7 @@ extern const uint16_t bench_rig_counter_check_table[BENCH_RIG_COUNTER_CHECK_TABL
 /*
  * chopper-ref (bench_rig_chopper_ref): sine, 3.29919 Vpp around 1.6496 V
  * target   712.3456 kHz +/- 7.123456 mHz
- * achieved ~712.34560011 kHz (error ~+110.5 uHz, +0.0001551 ppm; verdict fractional)
+ * achieved ~712.34560011 kHz (error ~+110.5 uHz, +155 ppt; verdict fractional)
  * f_s = 150 MHz / (22 + 85/256) = ~6.71680951548 MHz; 7053 samples hold 748 cycle(s), open span
  * divider jitter: period 6.67 ns pk-pk, 3.14 ns rms; TIE 6.64 ns pk-pk
  * seam: ok

@@ -121,7 +121,7 @@ extern const uint16_t tone_lab_tri_table[TONE_LAB_TRI_TABLE_LENGTH];
 /*
  * odd-tone (tone_lab_odd_tone): sine, 1.5 Vpp around 1.25 V
  * target   7.777 kHz +/- 0.07777 mHz
- * achieved ~7.77700001186 kHz (error ~+11.86 uHz, +0.001526 ppm; verdict fractional)
+ * achieved ~7.77700001186 kHz (error ~+11.86 uHz, +1.53 ppb; verdict fractional)
  * f_s = 96 MHz / (1316 + 63/64) = ~72.8938033149 kHz; 4096 samples hold 437 cycle(s), open span
  * divider jitter: period 10.4 ns pk-pk, 1.29 ns rms; TIE 10.3 ns pk-pk
  * seam: ok
