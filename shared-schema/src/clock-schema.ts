@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO } from './defaults';
 import { optional, quantity, required, whole } from './schema-kit';
+import { clockTreeKeys } from './clock-tree-schema';
 
 /** 100 GHz: far above any microcontroller, low enough to catch a slipped exponent. */
 export const MAX_FREQUENCY_HZ = 1e11;
@@ -26,6 +27,7 @@ export const clockSchema = z
       frequency(),
       "The highest system clock the part's datasheet allows. A `system-clock` above it gets a caution: check the datasheet and qualified practice before running hardware that way.",
     ),
+    ...clockTreeKeys,
     divider: required(
       z.strictObject({
         integer: required(

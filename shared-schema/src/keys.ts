@@ -10,7 +10,7 @@ import { type QuantityMeta, defaultTextRegistry, quantityRegistry } from './sche
 
 export type FileKind = 'wave' | 'clock';
 
-export type ValueType = 'object' | 'map' | 'text' | 'whole number' | 'true/false' | 'choice' | 'quantity';
+export type ValueType = 'object' | 'map' | 'list' | 'text' | 'whole number' | 'true/false' | 'choice' | 'quantity';
 
 export interface KeyInfo {
   /** Dotted path; `*` stands for any output name, e.g. `outputs.*.frequency`. */
@@ -31,11 +31,13 @@ export interface KeyInfo {
   max?: number;
   /** Known keys of an object (empty for leaves and maps). */
   children: string[];
+  /** A list's items: what each one is. */
+  items?: KeyInfo;
 }
 
 export const schemaOf = (kind: FileKind): z.ZodType => (kind === 'clock' ? clockSchema : waveSchema);
 
-type Def = { type: string; innerType?: z.ZodType; shape?: Record<string, z.ZodType>; valueType?: z.ZodType; entries?: Record<string, string> };
+type Def = { type: string; innerType?: z.ZodType; shape?: Record<string, z.ZodType>; valueType?: z.ZodType; element?: z.ZodType; entries?: Record<string, string> };
 const defOf = (s: z.ZodType): Def => (s as unknown as { _zod: { def: Def } })._zod.def;
 
 function unwrap(s: z.ZodType): z.ZodType {
@@ -55,6 +57,8 @@ function schemaAt(kind: FileKind, path: readonly (string | number)[]): z.ZodType
       cur = def.shape[part];
     } else if (def.type === 'record' && def.valueType) {
       cur = def.valueType;
+    } else if (def.type === 'array' && def.element && typeof part === 'number') {
+      cur = def.element;
     } else {
       return undefined;
     }
@@ -89,6 +93,9 @@ function describe(declared: z.ZodType, path: readonly (string | number)[], pathT
     info.children = Object.keys(def.shape);
   } else if (def.type === 'record') {
     info.type = 'map';
+  } else if (def.type === 'array' && def.element) {
+    info.type = 'list';
+    info.items = describe(def.element, [...path, 0], `${pathText}[]`);
   } else if (def.type === 'enum' && def.entries) {
     info.type = 'choice';
     info.values = Object.values(def.entries);

@@ -28,6 +28,8 @@ function typeText(k: KeyInfo): string {
     }
     case 'whole number':
       return `whole number ${k.min ?? ''}–${k.max ?? ''}`;
+    case 'list':
+      return k.items ? `list of ${typeText(k.items)}` : 'list';
     case 'choice':
     case 'true/false':
       return (k.values ?? []).map((v) => `\`${v}\``).join(' or ');

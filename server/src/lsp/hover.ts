@@ -6,6 +6,7 @@ import type { TextDocument } from 'vscode-languageserver-textdocument';
 import type { Document } from 'yaml';
 import { lookupKey, type KeyInfo } from '../../../shared-schema/src/keys';
 import type { Analysis } from '../spec/types';
+import { clockBudgetLine } from './clock-views';
 import { memoryLine, outputCard } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { quantityViews } from './quantity-views';
@@ -30,6 +31,8 @@ function outputHover(analysis: Analysis, name: string, pictures: boolean): strin
   const output = analysis.outputs.find((o) => o.name === name);
   if (!output) return undefined;
   let text = outputCard(output);
+  const budget = clockBudgetLine(output, analysis.hardware);
+  if (budget) text += `\n\n${budget}`;
   const memory = memoryLine(analysis);
   if (memory) text += `\n\n${memory}`;
   const dac = analysis.hardware?.dac;

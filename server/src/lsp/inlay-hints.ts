@@ -6,6 +6,7 @@ import type { TextDocument } from 'vscode-languageserver-textdocument';
 import type { PlanFigures } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
 import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds } from '../cli/units';
+import { clockShareHint } from './clock-views';
 import { VERDICT_WORDS } from './plan-card';
 
 export function hintText(plan: PlanFigures): string {
@@ -30,7 +31,7 @@ export function inlayHints(doc: TextDocument, analysis: Analysis, range: Range):
     const line = output.nameRange.end.line;
     if (line < range.start.line || line > range.end.line) continue;
     const plan = output.planning.plan;
-    const label = plan ? hintText(plan) : 'no plan';
+    const label = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) : 'no plan';
     hints.push({
       position: anchor(doc, output),
       label,

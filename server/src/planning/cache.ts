@@ -12,7 +12,7 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
   const w = req.waveform;
   const p = req.pinned;
   return [
-    q(hw.systemClockHz),
+    q(hw.systemClockHz), hw.systemClockTolerance ? q(hw.systemClockTolerance) : '0',
     dv.integerMin, dv.integerMax, dv.fractionBits,
     dac.bits, dac.sampleBytes, dac.fullScaleV, q(dac.maxSampleRateHz),
     mem.budgetBytes, mem.tableLengthMin, mem.tableLengthMax, mem.powerOfTwo,

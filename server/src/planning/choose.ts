@@ -1,7 +1,8 @@
 // The engine's verdict on one output: which plan to use and how it stands against the tolerance.
 
-import { type Rational, abs, cmp, sign } from '../../../shared-schema/src/rational';
+import { type Rational, sign } from '../../../shared-schema/src/rational';
 import { PlanningCache, planningKey } from './cache';
+import { withinWorstCase } from './clock-error';
 import { describePlan } from './figures';
 import { pinnedPlan } from './pinned';
 import { bestFractional, nearestJitterFree } from './search';
@@ -11,8 +12,8 @@ import type { Hardware, OutputPlanning, OutputRequest, Plan, PlanFigures } from 
 /** The memo shared by every caller of planOutput (language server, checker, exporters). */
 export const planningCache = new PlanningCache(1000);
 
-const within = (plan: Plan | PlanFigures | null, toleranceHz: Rational): boolean =>
-  plan !== null && cmp(abs(plan.errorHz), toleranceHz) <= 0;
+const within = (plan: Plan | PlanFigures | null, toleranceHz: Rational, clockTolerance?: Rational): boolean =>
+  plan !== null && withinWorstCase(plan, toleranceHz, clockTolerance);
 
 /** Plans one output (memoised; the result must be treated as read-only). */
 export function planOutput(hw: Hardware, req: OutputRequest): OutputPlanning {
@@ -31,14 +32,14 @@ export function planOutputUncached(hw: Hardware, req: OutputRequest): OutputPlan
 
   if (req.pinned) {
     const plan = describe(pinnedPlan(hw, req.pinned, req.targetHz), req.pinned.span);
-    return { ...base, verdict: 'pinned', plan, withinTolerance: within(plan, req.toleranceHz) };
+    return { ...base, verdict: 'pinned', plan, withinTolerance: within(plan, req.toleranceHz, hw.systemClockTolerance) };
   }
-  if (nearest !== null && within(nearest, req.toleranceHz)) {
+  if (nearest !== null && within(nearest, req.toleranceHz, hw.systemClockTolerance)) {
     const verdict = sign(nearest.errorHz) === 0 ? 'exact' : 'within-tolerance';
     return { ...base, verdict, plan: nearest, withinTolerance: true };
   }
   const fractionAllowed = req.jitter === 'allow' && hw.divider.fractionBits > 0;
-  if (fractionAllowed && fractional !== null && within(fractional, req.toleranceHz)) {
+  if (fractionAllowed && fractional !== null && within(fractional, req.toleranceHz, hw.systemClockTolerance)) {
     return { ...base, verdict: 'fractional', plan: fractional, withinTolerance: true };
   }
   const best = fractionAllowed && fractional !== null ? fractional : nearest;

@@ -2,11 +2,16 @@
 // Pure data: no editor, LSP, YAML or file-system types ever appear here.
 
 import type { Rational } from '../../../shared-schema/src/rational';
+import type { ClockTree } from './clock-source';
 
 /** The hardware of a clock file, resolved to exact values. */
 export interface Hardware {
   /** f_sys */
   systemClockHz: Rational;
+  /** e, the system clock's relative tolerance (`system-clock-tolerance`); absent = exact. */
+  systemClockTolerance?: Rational;
+  /** Where f_sys can come from (a PLL, a list); absent = fixed. */
+  clockTree?: ClockTree;
   divider: {
     /** Range of the integer part I of D = I + F/2^k. */
     integerMin: number;

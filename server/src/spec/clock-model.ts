@@ -7,6 +7,7 @@ import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO } from '../../../shared-sch
 import { cmp, toNumber } from '../../../shared-schema/src/rational';
 import { formatHz } from '../../../shared-schema/src/quantity-format';
 import type { Hardware } from '../planning/types';
+import { buildClockTree } from './clock-tree-model';
 import { diagnostic, type LineIndex } from './source';
 import { valueRange, rangeFor } from './nodes';
 import type { Quantities } from './quantities';
@@ -57,9 +58,14 @@ export function buildHardware(
     );
   }
 
+  const clock = buildClockTree(data, q, doc, lines, systemClock.value);
+  diagnostics.push(...clock.diagnostics);
+
   if (diagnostics.some((d) => d.severity === 'error')) return { hardware: null, diagnostics };
   const hardware: Hardware = {
     systemClockHz: systemClock.value,
+    systemClockTolerance: clock.tree.toleranceRatio,
+    clockTree: clock.tree,
     divider: { integerMin: iMin, integerMax: iMax, fractionBits: data.divider['fraction-bits'] ?? DEFAULT_FRACTION_BITS },
     dac: { bits, sampleBytes, fullScaleV: toNumber(fullScale.value), maxSampleRateHz: maxRate.value },
     memory: { budgetBytes: toNumber(budget.value), tableLengthMin: nMin, tableLengthMax: nMax, powerOfTwo },

@@ -97,6 +97,21 @@ export const CODES = {
     title: 'System clock above its rating',
     help: "The system clock is above the rated-system-clock. Running a part beyond its datasheet rating can make it misbehave or fail; waveplan plans it anyway. Defer to the datasheet and qualified practice before running hardware this way.",
   },
+  'clock-unreachable': {
+    severity: 'warning',
+    title: 'System clock the clock tree cannot make',
+    help: 'The `system-clock` in use is not one the PLL can make from its crystal within its ranges (or not one of `system-clock-candidates`). The outputs are still planned on it; the message names the nearest clock the tree makes.',
+  },
+  'peripheral-clock': {
+    severity: 'warning',
+    title: 'Peripheral clock out of tolerance',
+    help: "A peripheral listed under `peripheral-clocks` cannot get its frequency within its tolerance from the system clock (or the VCO) in use, the clock's own tolerance counted in. Pick another system clock (the hover on `system-clock` ranks them) or another divider range.",
+  },
+  'clock-accuracy': {
+    severity: 'error',
+    title: "The system clock's own error exceeds the output's tolerance",
+    help: "The system clock's tolerance (`system-clock-tolerance`, the crystal's) alone is more than this output's tolerance allows, so no divider or table can meet it. Use a more accurate clock source (a tighter crystal, a TCXO) or widen the output's tolerance.",
+  },
   clipping: {
     severity: 'error',
     title: 'Output clips',

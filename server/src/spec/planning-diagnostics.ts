@@ -5,6 +5,7 @@ import { NYQUIST_SAMPLES_PER_CYCLE } from '../../../shared-schema/src/defaults';
 import { formatBytes, formatHz, formatLsb, formatPpm, formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { type Rational, cmp, div, isInteger, rat, toDecimal } from '../../../shared-schema/src/rational';
 import type { Hardware, OutputPlanning, PlanFigures } from '../planning/types';
+import { clockAccuracyDiagnostic, clockBudgetText } from './clock-budget';
 import { type Code } from './codes';
 import { diagnostic } from './source';
 import type { Range, SpecDiagnostic } from './types';
@@ -44,11 +45,15 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
     return out;
   }
 
-  if (!planning.withinTolerance) {
+  const clockAlone = clockAccuracyDiagnostic(draft, hw, toleranceText);
+  if (clockAlone) {
+    out.push(clockAlone);
+  } else if (!planning.withinTolerance) {
     const alt = planning.nearestJitterFree;
     const nearest = alt && !sameDivider(alt, plan) ? `; the nearest jitter-free plan is ${planText(alt)}` : '';
+    const budget = clockBudgetText(plan, draft, hw);
     const fix = pinned ? 'change the pinned plan or widen the tolerance' : 'widen the tolerance, allow jitter, or change the clock';
-    push('out-of-tolerance', pinned ? planRange() : (r.frequency ?? draft.nameRange), `${pinned ? 'The pinned plan' : 'The best plan'} is ${planText(plan)}, outside ±${toleranceText}${nearest}: ${fix}.`);
+    push('out-of-tolerance', pinned ? planRange() : (r.frequency ?? draft.nameRange), `${pinned ? 'The pinned plan' : 'The best plan'} is ${planText(plan)}${budget.worst}, outside ±${toleranceText}${budget.share}${nearest}: ${fix}.`);
   } else if (!plan.jitterFree) {
     const why = pinned ? 'The pinned divider is fractional' : `Only a fractional divider meets ±${toleranceText}`;
     const fix = pinned ? 'accept it or pin a whole divider' : 'accept it, or widen the tolerance for a jitter-free plan';

@@ -57,13 +57,15 @@ const concrete = (key: QuantityKey, name: string): Path => [key.parts[0], name, 
 
 /** Concrete paths of every quantity key that exists in the document (`*` expanded to output names). */
 function presentPaths(kind: FileKind, doc: Document.Parsed, data: unknown): { path: Path; meta: QuantityMeta }[] {
-  const names =
-    kind === 'wave' && data && typeof data === 'object' && (data as Record<string, unknown>).outputs && typeof (data as Record<string, unknown>).outputs === 'object'
-      ? Object.keys((data as Record<string, object>).outputs)
-      : [];
+  // A `*` stands for the names of a top-level map: the outputs of a wave spec, the peripheral
+  // clocks of a clock file.
+  const namesOf = (top: string): string[] => {
+    const map = data && typeof data === 'object' ? (data as Record<string, unknown>)[top] : undefined;
+    return map && typeof map === 'object' && !Array.isArray(map) ? Object.keys(map) : [];
+  };
   const out: { path: Path; meta: QuantityMeta }[] = [];
   for (const key of quantityKeys(kind)) {
-    const paths = key.parts[1] === '*' ? names.map((n) => concrete(key, n)) : [key.parts];
+    const paths = key.parts[1] === '*' ? namesOf(key.parts[0]).map((n) => concrete(key, n)) : [key.parts];
     for (const path of paths) if (locate(doc, path)) out.push({ path, meta: key.meta });
   }
   return out;
