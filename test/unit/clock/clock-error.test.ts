@@ -93,8 +93,8 @@ describe('the crystal turns a passing plan into an error that says it dominates'
     expect(fast.message).toContain('its worst case is 90.69 ppm (plan -40.69 ppm + clock 50 ppm), outside ±50 ppm');
     expect(fast.message).toContain("the clock's share dominates");
     const out = a.outputs.find((o) => o.name === 'fast')!;
-    expect(clockBudgetLine(out, a.hardware)).toContain('90.69 ppm = plan -40.69 ppm + clock 50 ppm, outside the tolerance');
-    expect(clockShareHint(out, a.hardware)).toBe(" · worst 90.69 ppm with the clock's ±50 ppm");
+    expect(clockBudgetLine(out, a.hardware)).toContain('90.7 ppm = plan -40.7 ppm + clock 50 ppm, outside the tolerance');
+    expect(clockShareHint(out, a.hardware)).toBe(" · worst 90.7 ppm with the clock's ±50 ppm");
     // 4.36 + 50·(1 − 4.36e-6) = 54.36 ppm (derived).
     expect(a.diagnostics.find((d) => d.output === 'tone')!.message).toContain('54.36 ppm');
   });
