@@ -138,3 +138,15 @@ export function formatSeconds(s: number): string {
 
 /** Volts with up to 4 significant digits: "1.65 V". */
 export const formatVolts = (v: number, unit = 'V'): string => `${Number(v.toPrecision(4))} ${unit}`;
+
+/** A file's size for messages: "1.0 GiB (1073741824 bytes)", "512 bytes". */
+export function formatFileSize(bytes: number): string {
+  const units: ReadonlyArray<[string, number]> = [
+    ['TiB', 2 ** 40],
+    ['GiB', 2 ** 30],
+    ['MiB', 2 ** 20],
+    ['KiB', 2 ** 10],
+  ];
+  for (const [unit, scale] of units) if (bytes >= scale) return `${(bytes / scale).toFixed(1)} ${unit} (${bytes} bytes)`;
+  return `${bytes} byte${bytes === 1 ? '' : 's'}`;
+}

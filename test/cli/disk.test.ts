@@ -4,7 +4,8 @@ import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { parseCheckArgs, UsageError } from '../../server/src/cli/args';
-import { CliInputError, collectSpecFiles, DiskHost, READ_LIMIT_BYTES } from '../../server/src/cli/disk';
+import { CliInputError, collectSpecFiles, DiskHost } from '../../server/src/cli/disk';
+import { MAX_SPEC_BYTES } from '../../server/src/spec/containment';
 import { scratchDir } from '../support/cli';
 
 const root = scratchDir('disk');
@@ -40,21 +41,23 @@ describe('collectSpecFiles', () => {
 describe('DiskHost', () => {
   it('reads a file once however often it is asked for', () => {
     const file = touch('once/board.clock.yaml', 'system-clock: 150 MHz\n');
-    const host = new DiskHost();
+    const host = new DiskHost([root]);
     expect(host.readFile(file)).toBe('system-clock: 150 MHz\n');
     expect(host.readFile(path.join(root, 'once', '..', 'once', 'board.clock.yaml'))).toBe('system-clock: 150 MHz\n');
     expect(host.reads).toBe(1);
   });
   it('remembers a missing file as unreadable', () => {
-    const host = new DiskHost();
+    const host = new DiskHost([root]);
     expect(host.readFile(path.join(root, 'nope.clock.yaml'))).toBeUndefined();
     expect(host.readFile(path.join(root, 'nope.clock.yaml'))).toBeUndefined();
     expect(host.reads).toBe(1);
   });
-  it('reads no more than its limit of a huge file', () => {
+  it('refuses a file above its limit without reading it, and says how large it is', () => {
     const file = path.join(root, 'huge.wave.yaml');
-    fs.writeFileSync(file, Buffer.alloc(READ_LIMIT_BYTES + 1000, 0x61));
-    expect(new DiskHost().readFile(file)?.length).toBe(READ_LIMIT_BYTES);
+    fs.writeFileSync(file, Buffer.alloc(MAX_SPEC_BYTES + 1000, 0x61));
+    const host = new DiskHost([root]);
+    expect(host.readFile(file)).toBeUndefined();
+    expect(host.refusal(file)).toMatchObject({ code: 'too-large', size: MAX_SPEC_BYTES + 1000 });
   });
 });
 
@@ -64,6 +67,8 @@ describe('parseCheckArgs', () => {
       paths: ['a', '-odd'],
       format: 'json',
       output: 'r.json',
+      root: null,
+      force: false,
       help: false,
     });
   });

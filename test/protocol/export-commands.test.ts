@@ -185,8 +185,33 @@ describe('waveplan.exportC', () => {
     client.notify('workspace/didChangeConfiguration', { settings: null });
     const before = hashTree(ws);
     const answer = await command<{ error: string }>('waveplan.exportC', uriOf(file('tone-lab.wave.yaml')));
-    // POSIX mkdir(2) on a path under a regular file fails with ENOTDIR (or EEXIST for the file itself).
-    expect(answer.error).toMatch(/^cannot write .*tone_lab\.h: (ENOTDIR|EEXIST)$/);
+    expect(answer.error).toBe('nothing exported: tone-lab.clock.yaml is a file, not a folder');
+    expect(hashTree(ws)).toEqual(before);
+    client.settings = {};
+    client.notify('workspace/didChangeConfiguration', { settings: null });
+  });
+
+  it('refuses a folder setting that leads out of the workspace, and a link planted in the folder', async () => {
+    const outside = fs.mkdtempSync(path.join(os.tmpdir(), 'waveplan-outside-'));
+    scratch.push(outside);
+    const before = hashTree(ws);
+    const uri = uriOf(file('tone-lab.wave.yaml'));
+    client.settings = { export: { directory: path.relative(ws, outside) } };
+    client.notify('workspace/didChangeConfiguration', { settings: null });
+    const away = await command<{ error: string }>('waveplan.exportC', uri);
+    expect(away.error).toMatch(/^nothing exported: the folder .* is outside the workspace folder \.; waveplan writes only inside it$/);
+    expect(fs.readdirSync(outside)).toEqual([]);
+
+    const victim = path.join(outside, 'victim.h');
+    fs.writeFileSync(victim, 'precious\n');
+    fs.mkdirSync(file('planted'));
+    fs.symlinkSync(victim, file('planted/tone_lab.h'));
+    client.settings = { export: { directory: 'planted' } };
+    client.notify('workspace/didChangeConfiguration', { settings: null });
+    const linked = await command<{ error: string }>('waveplan.exportC', uri);
+    expect(linked.error).toBe('nothing exported: planted/tone_lab.h is a symbolic link; waveplan never writes through links');
+    expect(fs.readFileSync(victim, 'utf8')).toBe('precious\n');
+    fs.rmSync(file('planted'), { recursive: true });
     expect(hashTree(ws)).toEqual(before);
     client.settings = {};
     client.notify('workspace/didChangeConfiguration', { settings: null });

@@ -11,6 +11,10 @@ export interface CheckOptions {
   format: ReportFormat;
   /** Write the report here instead of stdout. */
   output: string | null;
+  /** The workspace folder specs may read from; null: the folders named (and those of the files named). */
+  root: string | null;
+  /** Replace an --output file that waveplan did not write. */
+  force: boolean;
   help: boolean;
 }
 
@@ -57,7 +61,7 @@ export function parseWords(argv: readonly string[], valueFlags: readonly string[
 }
 
 export function parseCheckArgs(argv: readonly string[]): CheckOptions {
-  const p = parseWords(argv, ['--format', '--output'], ['--help']);
+  const p = parseWords(argv, ['--format', '--output', '--root'], ['--force', '--help']);
   const format = p.values.get('--format') ?? 'text';
   if (!(REPORT_FORMATS as readonly string[]).includes(format)) {
     throw new UsageError(`--format must be one of ${REPORT_FORMATS.join(', ')} (got "${format}")`);
@@ -66,6 +70,8 @@ export function parseCheckArgs(argv: readonly string[]): CheckOptions {
     paths: p.positional,
     format: format as ReportFormat,
     output: p.values.get('--output') ?? null,
+    root: p.values.get('--root') ?? null,
+    force: p.switches.has('--force'),
     help: p.switches.has('--help'),
   };
   if (!options.help && options.paths.length === 0) throw new UsageError('check needs at least one file or folder');

@@ -2,12 +2,13 @@
 // report. Exit 0 when no errors (warnings allowed), 1 when any error; misuse and unreadable input
 // surface as UsageError / CliInputError for the entry to turn into exit 2.
 
-import * as fs from 'node:fs';
 import * as path from 'node:path';
-import { analyze } from '../spec/analyze';
+import { analyze, kindOf } from '../spec/analyze';
+import { diagnostic } from '../spec/source';
+import type { Analysis } from '../spec/types';
 import { parseCheckArgs } from './args';
 import { tally, type CheckedFile } from './checked';
-import { CliInputError, collectSpecFiles, DiskHost } from './disk';
+import { CliInputError, collectSpecFiles, DiskHost, workspaceRoots, writeOutputs } from './disk';
 import { formatJson } from './format-json';
 import { formatSarif } from './format-sarif';
 import { formatText, summaryLine } from './format-text';
@@ -41,17 +42,10 @@ export function runCheck(argv: readonly string[], io: CliIo, tool: ToolInfo): nu
     throw new CliInputError(`no *.wave.yaml or *.clock.yaml files in ${options.paths.join(', ')}`);
   }
   const outputPath = options.output === null ? null : path.resolve(io.cwd, options.output);
-  if (outputPath !== null && files.includes(outputPath)) {
-    throw new CliInputError(`refusing to write the report over a checked spec: ${options.output}`);
-  }
 
   const relative = relativeTo(io.cwd);
-  const host = new DiskHost();
-  const checked: CheckedFile[] = files.map((file) => {
-    const text = host.readFile(file);
-    if (text === undefined) throw new CliInputError(`cannot read ${relative(file)}`);
-    return { path: relative(file), analysis: analyze(file, text, host) };
-  });
+  const host = new DiskHost(workspaceRoots(options.paths, io.cwd, options.root));
+  const checked: CheckedFile[] = files.map((file) => ({ path: relative(file), analysis: readAndAnalyze(file, host, relative) }));
 
   const report =
     options.format === 'json'
@@ -64,13 +58,24 @@ export function runCheck(argv: readonly string[], io: CliIo, tool: ToolInfo): nu
   if (outputPath === null) {
     io.stdout(report);
   } else {
-    try {
-      fs.writeFileSync(outputPath, report);
-    } catch (e) {
-      throw new CliInputError(`cannot write ${options.output}: ${(e as NodeJS.ErrnoException).code ?? 'error'}`);
-    }
+    // Every file the run read is an input: the checked specs and the clock files they name.
+    writeOutputs([{ file: outputPath, folder: path.dirname(outputPath), text: report }], { inputs: host.inputs(), force: options.force, anchor: io.cwd, show: relative });
     // CI logs still show the outcome when the report goes to a file.
     io.stdout(`${summaryLine(counts)} (report in ${options.output})\n`);
   }
   return counts.errors > 0 ? 1 : 0;
+}
+
+/**
+ * The analysis of one named spec. A file too large to be a spec is a finding with a range (its
+ * real size, never read); any other refusal (a link leading out of the workspace) stops the run.
+ */
+function readAndAnalyze(file: string, host: DiskHost, relative: (abs: string) => string): Analysis {
+  const text = host.readFile(file);
+  if (text !== undefined) return analyze(file, text, host);
+  const refusal = host.refusal(file);
+  if (refusal?.code !== 'too-large') throw new CliInputError(`cannot read ${relative(file)}: ${refusal?.reason ?? 'unreadable'}`);
+  const start = { line: 0, character: 0 };
+  const d = diagnostic('file-too-large', { start, end: start }, `The file ${refusal.reason}: check that this is the spec you meant.`);
+  return { path: file, kind: kindOf(file), text: '', diagnostics: [d], outputs: [], hardware: null, clockPath: null, memory: null };
 }

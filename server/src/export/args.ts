@@ -5,25 +5,32 @@ import { UsageError, parseWords } from '../cli/args';
 
 export { UsageError };
 
-export const EXPORT_USAGE = `usage: waveplan export <file.wave.yaml…> [--c <folder>] [--json <file>] [--force]
+export const EXPORT_USAGE = `usage: waveplan export <file.wave.yaml…> [--c <folder>] [--json <file>] [--root <folder>] [--force]
 
 Writes the checked plans as firmware sources: per wave spec a C header and a C file holding each
 output's sample table and divider register values (--c), and/or all plans as JSON (--json).
 Only specs without errors are exported; --force exports anyway, marks every file as unchecked,
-and still exits 1. Exit codes: 0 written, 1 the specs have errors, 2 misuse or unreadable files.
+and still exits 1. A file is replaced only when waveplan wrote it (its banner says so), never
+through a symbolic link and never over a spec or a file the specs read; --force also replaces
+files waveplan did not write. Specs read files only inside --root (default: the folders of the
+specs named). Exit codes: 0 written, 1 the specs have errors, 2 misuse, unreadable or refused files.
 `;
 
-export const REPORT_USAGE = `usage: waveplan report <file.wave.yaml…> --html <file>
+export const REPORT_USAGE = `usage: waveplan report <file.wave.yaml…> --html <file> [--root <folder>] [--force]
 
 Writes one self-contained HTML page (no network access needed) with each output's plan, its
 pictures, the memory budget and the findings. The page is written even when the specs have
-errors. Exit codes: 0 no errors, 1 the specs have errors, 2 misuse or unreadable files.
+errors. An existing file is replaced only when waveplan wrote it (or with --force), never
+through a symbolic link and never over a spec or a file the specs read. Specs read files only
+inside --root (default: the folders of the specs named).
+Exit codes: 0 no errors, 1 the specs have errors, 2 misuse, unreadable or refused files.
 `;
 
 export interface ExportOptions {
   specs: string[];
   cDir: string | null;
   json: string | null;
+  root: string | null;
   force: boolean;
   help: boolean;
 }
@@ -31,15 +38,18 @@ export interface ExportOptions {
 export interface ReportOptions {
   specs: string[];
   html: string | null;
+  root: string | null;
+  force: boolean;
   help: boolean;
 }
 
 export function parseExportArgs(argv: readonly string[]): ExportOptions {
-  const p = parseWords(argv, ['--c', '--json'], ['--force', '--help']);
+  const p = parseWords(argv, ['--c', '--json', '--root'], ['--force', '--help']);
   const options: ExportOptions = {
     specs: p.positional,
     cDir: p.values.get('--c') ?? null,
     json: p.values.get('--json') ?? null,
+    root: p.values.get('--root') ?? null,
     force: p.switches.has('--force'),
     help: p.switches.has('--help'),
   };
@@ -50,8 +60,14 @@ export function parseExportArgs(argv: readonly string[]): ExportOptions {
 }
 
 export function parseReportArgs(argv: readonly string[]): ReportOptions {
-  const p = parseWords(argv, ['--html'], ['--help']);
-  const options: ReportOptions = { specs: p.positional, html: p.values.get('--html') ?? null, help: p.switches.has('--help') };
+  const p = parseWords(argv, ['--html', '--root'], ['--force', '--help']);
+  const options: ReportOptions = {
+    specs: p.positional,
+    html: p.values.get('--html') ?? null,
+    root: p.values.get('--root') ?? null,
+    force: p.switches.has('--force'),
+    help: p.switches.has('--help'),
+  };
   if (options.help) return options;
   if (options.specs.length === 0) throw new UsageError('report needs at least one wave spec');
   if (options.html === null) throw new UsageError('report needs --html <file>');

@@ -136,6 +136,8 @@ export function reportHtml(specs: readonly LoadedSpec[]): string {
   return [
     '<!doctype html>',
     '<html lang="en"><head><meta charset="utf-8">',
+    // The writers recognise their own page by this line (spec/containment.ts) and replace only it.
+    '<meta name="generator" content="waveplan report">',
     `<meta http-equiv="Content-Security-Policy" content="default-src 'none'; img-src data:; style-src 'unsafe-inline'">`,
     '<meta name="viewport" content="width=device-width, initial-scale=1">',
     `<title>waveplan report — ${esc(specs.map((s) => s.path).join(', '))}</title>`,

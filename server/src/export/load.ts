@@ -6,7 +6,8 @@
 import { createHash } from 'node:crypto';
 import * as fs from 'node:fs';
 import * as path from 'node:path';
-import { CliInputError, collectSpecFiles, DiskHost } from '../cli/disk';
+import { CliInputError, collectSpecFiles, DiskHost, workspaceRoots } from '../cli/disk';
+import type { FileFacts } from '../spec/containment';
 import { analyze } from '../spec/analyze';
 import type { Analysis, SpecDiagnostic } from '../spec/types';
 
@@ -49,8 +50,18 @@ export function contentHash(specText: string, clockText: string | undefined): st
     .digest('hex');
 }
 
-/** Analyses every wave spec named (folders: their *.wave.yaml files). Unreadable input throws CliInputError. */
-export function loadSpecs(inputs: readonly string[], cwd: string): LoadedSpec[] {
+export interface LoadedRun {
+  specs: LoadedSpec[];
+  /** Identities of every file read (specs and clock files): what the run's writers must never overwrite. */
+  inputs: FileFacts[];
+}
+
+/**
+ * Analyses every wave spec named (folders: their *.wave.yaml files), reading only inside the
+ * workspace (`root`, else the folders named and those of the files named). Unreadable input
+ * throws CliInputError.
+ */
+export function loadSpecs(inputs: readonly string[], cwd: string, root: string | null = null): LoadedRun {
   const files = collectSpecFiles(inputs, cwd);
   const given = new Set(inputs.map((i) => path.resolve(cwd, i)));
   const waves = files.filter((f) => {
@@ -59,14 +70,15 @@ export function loadSpecs(inputs: readonly string[], cwd: string): LoadedSpec[] 
     return false;
   });
   if (waves.length === 0) throw new CliInputError(`no *.wave.yaml files in ${inputs.join(', ')}`);
-  const host = new DiskHost();
-  return waves.map((file) => {
+  const host = new DiskHost(workspaceRoots(inputs, cwd, root));
+  const specs = waves.map((file) => {
     const text = host.readFile(file);
-    if (text === undefined) throw new CliInputError(`cannot read ${shownPath(file, cwd)}`);
+    if (text === undefined) throw new CliInputError(`cannot read ${shownPath(file, cwd)}: ${host.whyUnreadable(file) ?? 'unreadable'}`);
     const analysis = analyze(file, text, host);
     const clockText = analysis.clockPath ? host.readFile(analysis.clockPath) : undefined;
     return describeSpec(file, text, analysis, clockText, cwd);
   });
+  return { specs, inputs: host.inputs() };
 }
 
 /**

@@ -2,9 +2,9 @@
 // --force), then write per spec <prefix>.h and <prefix>.c (--c) and/or one JSON file (--json).
 // Exit 0 written, 1 the specs have errors (also after a forced export), 2 misuse or I/O failure.
 
-import * as fs from 'node:fs';
 import * as path from 'node:path';
-import { CliInputError } from '../cli/disk';
+import { CliInputError, writeOutputs } from '../cli/disk';
+import type { WriteTarget } from '../spec/containment';
 import type { SpecDiagnostic } from '../spec/types';
 import { EXPORT_USAGE, parseExportArgs } from './args';
 import { cFiles, sampleType } from './c-export';
@@ -12,6 +12,7 @@ import { outputIdentifiers, specPrefix } from './identifiers';
 import { exportJson, type ExportedSpec } from './json-export';
 import { diagnosticLine, loadSpecs, type LoadedSpec } from './load';
 import { exportModel } from './model';
+import { relativeTo } from '../cli/check';
 import { guarded, processIo, type CommandIo } from './io';
 
 export function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['ids']; problems: SpecDiagnostic[] } {
@@ -36,17 +37,6 @@ export function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: Exporte
   return { ids, problems: problems.concat(diagnostics) };
 }
 
-export function writeAll(files: ReadonlyArray<{ file: string; text: string }>): void {
-  for (const { file, text } of files) {
-    try {
-      fs.mkdirSync(path.dirname(file), { recursive: true });
-      fs.writeFileSync(file, text);
-    } catch (e) {
-      throw new CliInputError(`cannot write ${file}: ${(e as NodeJS.ErrnoException).code ?? 'error'}`);
-    }
-  }
-}
-
 export async function runExport(argv: string[], io: CommandIo = processIo()): Promise<number> {
   return guarded('export', EXPORT_USAGE, io, () => {
     const options = parseExportArgs(argv);
@@ -54,7 +44,7 @@ export async function runExport(argv: string[], io: CommandIo = processIo()): Pr
       io.stdout(EXPORT_USAGE);
       return 0;
     }
-    const specs = loadSpecs(options.specs, io.cwd);
+    const { specs, inputs } = loadSpecs(options.specs, io.cwd, options.root);
     const prepared: ExportedSpec[] = [];
     let errors = 0;
     let blocking = 0;
@@ -87,7 +77,7 @@ export async function runExport(argv: string[], io: CommandIo = processIo()): Pr
       return 1;
     }
 
-    const writes: Array<{ file: string; text: string }> = [];
+    const writes: WriteTarget[] = [];
     if (options.cDir !== null) {
       const dir = path.resolve(io.cwd, options.cDir);
       const seen = new Map<string, string>();
@@ -96,13 +86,14 @@ export async function runExport(argv: string[], io: CommandIo = processIo()): Pr
         const other = seen.get(prefix);
         if (other) throw new CliInputError(`${other} and ${p.spec.path} would both write ${prefix}.h; rename one of them`);
         seen.set(prefix, p.spec.path);
-        for (const f of cFiles(p.spec, p.model, p.ids!, p.forced)) writes.push({ file: path.join(dir, f.name), text: f.text });
+        for (const f of cFiles(p.spec, p.model, p.ids!, p.forced)) writes.push({ file: path.join(dir, f.name), folder: dir, text: f.text });
       }
     }
-    if (options.json !== null) writes.push({ file: path.resolve(io.cwd, options.json), text: exportJson(prepared) });
-    const inputs = new Set(specs.flatMap((s) => [s.file, s.analysis.clockPath ?? '']));
-    for (const w of writes) if (inputs.has(w.file)) throw new CliInputError(`refusing to overwrite a spec file: ${w.file}`);
-    writeAll(writes);
+    if (options.json !== null) {
+      const file = path.resolve(io.cwd, options.json);
+      writes.push({ file, folder: path.dirname(file), text: exportJson(prepared) });
+    }
+    writeOutputs(writes, { inputs, force: options.force, anchor: io.cwd, show: relativeTo(io.cwd) });
     if (errors > 0) io.stderr(`!!! exported UNCHECKED plans with --force despite ${errors} error${errors === 1 ? '' : 's'}\n`);
     io.stdout(`exported ${prepared.reduce((n, p) => n + p.model.outputs.length, 0)} output(s) from ${prepared.length} spec(s): ${writes.map((w) => path.relative(io.cwd, w.file).split(path.sep).join('/')).join(', ')}\n`);
     return errors > 0 ? 1 : 0;

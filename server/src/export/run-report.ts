@@ -3,12 +3,12 @@
 // 0 none, 1 errors, 2 misuse or I/O failure.
 
 import * as path from 'node:path';
-import { CliInputError } from '../cli/disk';
+import { writeOutputs } from '../cli/disk';
 import { parseReportArgs, REPORT_USAGE } from './args';
 import { reportHtml } from './html-report';
+import { relativeTo } from '../cli/check';
 import { guarded, processIo, type CommandIo } from './io';
 import { loadSpecs } from './load';
-import { writeAll } from './run-export';
 
 export async function runReport(argv: string[], io: CommandIo = processIo()): Promise<number> {
   return guarded('report', REPORT_USAGE, io, () => {
@@ -17,12 +17,9 @@ export async function runReport(argv: string[], io: CommandIo = processIo()): Pr
       io.stdout(REPORT_USAGE);
       return 0;
     }
-    const specs = loadSpecs(options.specs, io.cwd);
+    const { specs, inputs } = loadSpecs(options.specs, io.cwd, options.root);
     const target = path.resolve(io.cwd, options.html!);
-    if (specs.some((s) => s.file === target || s.analysis.clockPath === target))
-      throw new CliInputError(`refusing to write the report over a spec file: ${options.html}`);
-    const html = reportHtml(specs);
-    writeAll([{ file: target, text: html }]);
+    writeOutputs([{ file: target, folder: path.dirname(target), text: reportHtml(specs) }], { inputs, force: options.force, anchor: io.cwd, show: relativeTo(io.cwd) });
     const errors = specs.reduce((n, s) => n + s.errors.length, 0);
     io.stdout(`report written to ${options.html} (${specs.length} spec(s), ${errors} error(s))\n`);
     return errors > 0 ? 1 : 0;

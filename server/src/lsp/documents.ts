@@ -1,16 +1,15 @@
 // Open buffers and one analysis per (document, version). The SpecHost handed to the spec layer
 // prefers an open buffer over the disk, so an unsaved clock file is what its wave specs see.
 
-import * as fs from 'node:fs';
+import { dirname } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { TextDocuments } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
+import { nodeFileSystem } from '../cli/disk';
+import { ContainedReader } from '../spec/containment';
 import type { Analysis, SpecHost } from '../spec/types';
 
 export type AnalyzeFn = (path: string, text: string, host: SpecHost) => Analysis;
-
-/** Files larger than this are not read from disk; the spec layer then reports them unreadable. */
-const MAX_DISK_BYTES = 16 * 1024 * 1024;
 
 /**
  * Analyses kept in memory. One of a 200-output spec holds about 1 MB of plans, so a hundred open
@@ -36,13 +35,30 @@ export function isSpecPath(path: string): boolean {
   return path.endsWith('.wave.yaml') || path.endsWith('.clock.yaml');
 }
 
-export function readDisk(path: string): string | undefined {
-  try {
-    const stat = fs.statSync(path);
-    if (!stat.isFile() || stat.size > MAX_DISK_BYTES) return undefined;
-    return fs.readFileSync(path, 'utf8');
-  } catch {
-    return undefined;
+/**
+ * The containment policy (spec/containment.ts) for the editor: specs read only inside the
+ * workspace folders — with none open, inside the folder of the spec being analysed.
+ */
+export class WorkspaceReads {
+  private folders: string[] = [];
+  private readers = new Map<string, ContainedReader>();
+
+  setFolders(folders: readonly string[]): void {
+    this.folders = [...folders];
+    this.readers.clear();
+  }
+
+  /** The reader for analyses of `spec`. */
+  readerFor(spec: string): ContainedReader {
+    const roots = this.folders.length > 0 ? this.folders : [dirname(spec)];
+    const key = roots.join('\0');
+    let reader = this.readers.get(key);
+    if (!reader) {
+      if (this.readers.size > 16) this.readers.clear();
+      reader = new ContainedReader(nodeFileSystem, roots);
+      this.readers.set(key, reader);
+    }
+    return reader;
   }
 }
 
@@ -58,6 +74,8 @@ export class SpecDocuments {
   private readonly cache = new Map<string, CacheEntry>();
   /** Open documents by file-system path, so the host can find a buffer from a resolved path. */
   private readonly byPath = new Map<string, string>();
+  /** Where analyses may read: set from the workspace folders by the server. */
+  readonly workspace = new WorkspaceReads();
 
   constructor(private readonly analyze: AnalyzeFn) {
     this.documents.onDidOpen((e) => this.byPath.set(uriToPath(e.document.uri), e.document.uri));
@@ -80,14 +98,41 @@ export class SpecDocuments {
   }
 
   /** Reads through open buffers first; records every path read so dependents can be found. */
-  private host(reads: Set<string>): SpecHost {
+  private host(reads: Set<string>, spec: string): SpecHost {
+    const inner = this.hostFor(spec);
     return {
       readFile: (path: string) => {
         reads.add(path);
+        return inner.readFile(path);
+      },
+      whyUnreadable: inner.whyUnreadable,
+    };
+  }
+
+  /**
+   * How an analysis of `spec` reads other files: open buffers first, then the disk, both only
+   * where the workspace policy allows (a refusal says why).
+   */
+  hostFor(spec: string): SpecHost {
+    const reader = this.workspace.readerFor(spec);
+    const why = new Map<string, string>();
+    return {
+      readFile: (path: string) => {
         const uri = this.byPath.get(path);
         const open = uri === undefined ? undefined : this.documents.get(uri);
-        return open ? open.getText() : readDisk(path);
+        if (open) {
+          const refused = reader.mayReadBuffer(path);
+          if (refused) why.set(path, refused.reason);
+          return refused ? undefined : open.getText();
+        }
+        const read = reader.read(path);
+        if ('refused' in read) {
+          why.set(path, read.refused.reason);
+          return undefined;
+        }
+        return read.text;
       },
+      whyUnreadable: (path: string) => why.get(path),
     };
   }
 
@@ -103,7 +148,7 @@ export class SpecDocuments {
       return hit.analysis;
     }
     const reads = new Set<string>();
-    const analysis = this.analyze(uriToPath(uri), doc.getText(), this.host(reads));
+    const analysis = this.analyze(uriToPath(uri), doc.getText(), this.host(reads, uriToPath(uri)));
     this.cache.delete(uri);
     this.cache.set(uri, { version: doc.version, analysis, reads });
     if (this.cache.size > KEPT_ANALYSES) this.cache.delete(this.cache.keys().next().value!);
@@ -118,9 +163,10 @@ export class SpecDocuments {
 
   /** Analysis of a file that is not open (disk text; other files still through open buffers). */
   analyzeClosed(path: string): Analysis | undefined {
-    const text = readDisk(path);
+    const host = this.hostFor(path);
+    const text = host.readFile(path);
     if (text === undefined) return undefined;
-    return this.analyze(path, text, this.host(new Set()));
+    return this.analyze(path, text, this.host(new Set(), path));
   }
 
   /** The analysis of an open document's text with a quick fix applied (its preview); never cached. */

@@ -4,15 +4,16 @@
 // `waveplan export --c` and `waveplan report --html` — so editor and CLI write the same bytes.
 
 import * as path from 'node:path';
-import { CliInputError } from '../cli/disk';
+import { CliInputError, nodeFileSystem, writeOutputs } from '../cli/disk';
 import { cFiles } from '../export/c-export';
 import { reportHtml } from '../export/html-report';
 import { describeSpec, diagnosticLine, type LoadedSpec } from '../export/load';
 import { exportModel } from '../export/model';
-import { exportProblems, writeAll } from '../export/run-export';
+import { exportProblems } from '../export/run-export';
 import { analyze } from '../spec/analyze';
+import type { FileFacts } from '../spec/containment';
 import type { SpecHost } from '../spec/types';
-import { readDisk, uriToPath, type SpecDocuments } from './documents';
+import { uriToPath, type SpecDocuments } from './documents';
 
 export const EXPORT_C = 'waveplan.exportC';
 export const HTML_REPORT = 'waveplan.htmlReport';
@@ -20,14 +21,9 @@ export const HTML_REPORT = 'waveplan.htmlReport';
 export type ExportCAnswer = { written: string[] } | { error: string };
 export type HtmlReportAnswer = { html: string } | { error: string };
 
-/** Text of a file as the editor sees it. */
-export type ReadText = (file: string) => string | undefined;
-
-export function bufferReader(docs: SpecDocuments): ReadText {
-  return (file) => {
-    const open = docs.get(docs.uriOfPath(file));
-    return open ? open.getText() : readDisk(file);
-  };
+/** How the editor reads files for an analysis of a spec (open buffers first, inside the workspace). */
+export interface EditorFiles {
+  hostFor(spec: string): SpecHost;
 }
 
 /**
@@ -54,19 +50,38 @@ function specFile(argument: unknown): string | { error: string } {
  * Analyses the spec afresh, reading each file once, so the hash written into the files is of
  * exactly the texts the plans came from.
  */
-function loadFromEditor(file: string, read: ReadText, folders: readonly string[]): LoadedSpec | { error: string } {
+function loadFromEditor(file: string, files: EditorFiles, folders: readonly string[]): LoadedSpec | { error: string } {
   const seen = new Map<string, string | undefined>();
+  const inner = files.hostFor(file);
   const host: SpecHost = {
     readFile: (p) => {
-      if (!seen.has(p)) seen.set(p, read(p));
+      if (!seen.has(p)) seen.set(p, inner.readFile(p));
       return seen.get(p);
     },
+    whyUnreadable: inner.whyUnreadable,
   };
   const text = host.readFile(file);
-  if (text === undefined) return { error: `cannot read ${file}` };
+  if (text === undefined) return { error: `cannot read ${file}${reasonOf(host, file)}` };
   const analysis = analyze(file, text, host);
   const clockText = analysis.clockPath ? host.readFile(analysis.clockPath) : undefined;
   return describeSpec(file, text, analysis, clockText, baseFolder(file, folders));
+}
+
+function reasonOf(host: SpecHost, file: string): string {
+  const why = host.whyUnreadable?.(file);
+  return why ? `: ${why}` : '';
+}
+
+/** Identities of the files the export read, as they are on disk now (an unsaved buffer's file too). */
+function inputFacts(paths: ReadonlyArray<string | null>): FileFacts[] {
+  return paths.flatMap((p) => {
+    if (!p) return [];
+    try {
+      return [nodeFileSystem.lstat(nodeFileSystem.realpath(p))];
+    } catch {
+      return [];
+    }
+  });
 }
 
 function plural(n: number, word: string): string {
@@ -77,10 +92,10 @@ function plural(n: number, word: string): string {
  * Writes <prefix>.h and <prefix>.c into `directory` (relative to the spec's folder), or nothing
  * at all when the spec has errors or its outputs cannot become C: the editor has no --force.
  */
-export function exportC(argument: unknown, directory: string, read: ReadText, folders: readonly string[]): ExportCAnswer {
+export function exportC(argument: unknown, directory: string, files: EditorFiles, folders: readonly string[]): ExportCAnswer {
   const file = specFile(argument);
   if (typeof file !== 'string') return file;
-  const spec = loadFromEditor(file, read, folders);
+  const spec = loadFromEditor(file, files, folders);
   if ('error' in spec) return spec;
   const { ids, problems } = exportProblems(spec, true);
   const findings = [...spec.errors, ...problems];
@@ -91,24 +106,30 @@ export function exportC(argument: unknown, directory: string, read: ReadText, fo
   }
   const model = exportModel(spec);
   if (!model) return { error: `nothing exported: no hardware could be read from the clock file of ${spec.path}` };
+  // The folder comes from settings a repository can carry: it must stay inside the workspace
+  // folder that holds the spec (with no folder open, inside the spec's own folder).
   const target = path.resolve(path.dirname(file), directory);
-  const writes = cFiles(spec, model, ids!, false).map((f) => ({ file: path.join(target, f.name), text: f.text }));
-  const inputs = new Set([file, spec.analysis.clockPath ?? '']);
-  const clash = writes.find((w) => inputs.has(w.file));
-  if (clash) return { error: `nothing exported: refusing to overwrite a spec file: ${clash.file}` };
+  const workspace = folders.find((f) => f === baseFolder(file, folders)) ?? path.dirname(file);
+  const writes = cFiles(spec, model, ids!, false).map((f) => ({ file: path.join(target, f.name), folder: target, text: f.text }));
   try {
-    writeAll(writes);
+    writeOutputs(writes, {
+      inputs: inputFacts([file, spec.analysis.clockPath]),
+      force: false,
+      anchor: workspace,
+      confine: workspace,
+      show: (p) => path.relative(workspace, p).split(path.sep).join('/') || '.',
+    });
   } catch (e) {
-    return { error: e instanceof CliInputError ? e.message : `export failed: ${String(e)}` };
+    return { error: e instanceof CliInputError ? `nothing exported: ${e.message.replace(/^nothing written: /, '')}` : `export failed: ${String(e)}` };
   }
   return { written: writes.map((w) => w.file) };
 }
 
 /** The self-contained report page of one wave spec; written even when the spec has errors (it shows them). */
-export function htmlReport(argument: unknown, read: ReadText, folders: readonly string[]): HtmlReportAnswer {
+export function htmlReport(argument: unknown, files: EditorFiles, folders: readonly string[]): HtmlReportAnswer {
   const file = specFile(argument);
   if (typeof file !== 'string') return file;
-  const spec = loadFromEditor(file, read, folders);
+  const spec = loadFromEditor(file, files, folders);
   if ('error' in spec) return spec;
   return { html: reportHtml([spec]) };
 }

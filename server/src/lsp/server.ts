@@ -23,7 +23,7 @@ import { clockDefinition } from './definition';
 import { Dependencies, findSpecFiles } from './dependencies';
 import { DiagnosticsPublisher } from './diagnostics';
 import { SpecDocuments, isSpecPath, uriToPath } from './documents';
-import { bufferReader, EXPORT_C, exportC, HTML_REPORT, htmlReport } from './export-commands';
+import { EXPORT_C, exportC, HTML_REPORT, htmlReport } from './export-commands';
 import { hover } from './hover';
 import { inlayHints } from './inlay-hints';
 import { guard, guardNotification, yieldToEvents } from './safe';
@@ -61,6 +61,7 @@ export function startServer(): void {
     canFollowFolders = !!caps.workspace?.workspaceFolders;
     folders = (params.workspaceFolders ?? []).map((f: WorkspaceFolder) => uriToPath(f.uri));
     if (folders.length === 0 && params.rootUri) folders = [uriToPath(params.rootUri)];
+    docs.workspace.setFolders(folders);
     return {
       capabilities: {
         textDocumentSync: TextDocumentSyncKind.Incremental,
@@ -86,6 +87,8 @@ export function startServer(): void {
           guardNotification(log, 'workspace folders', (event) => {
             const removed = new Set(event.removed.map((f) => uriToPath(f.uri)));
             folders = [...folders.filter((f) => !removed.has(f)), ...event.added.map((f) => uriToPath(f.uri))];
+            docs.workspace.setFolders(folders);
+            docs.invalidateAll();
           }),
         );
       }
@@ -253,9 +256,9 @@ export function startServer(): void {
         const uri = params.arguments?.[0];
         // A bad argument is answered by exportC before the folder matters.
         const directory = typeof uri === 'string' ? (await settings.get(uri)).exportDirectory : '';
-        return exportC(uri, directory, bufferReader(docs), folders);
+        return exportC(uri, directory, docs, folders);
       }
-      if (params.command === HTML_REPORT) return htmlReport(params.arguments?.[0], bufferReader(docs), folders);
+      if (params.command === HTML_REPORT) return htmlReport(params.arguments?.[0], docs, folders);
       throw new Error(`unknown command ${params.command}`);
     }),
   );

@@ -144,19 +144,23 @@ function resolveClock(analysis: Analysis, clock: unknown, range: Range, host: Sp
   const clockPath = nodePath.resolve(nodePath.dirname(analysis.path), clock);
   analysis.clockPath = clockPath;
   let text: string | undefined;
+  let why: string | undefined;
   try {
     text = host.readFile(clockPath);
+    if (text === undefined) why = host.whyUnreadable?.(clockPath);
   } catch {
     text = undefined;
   }
   if (text === undefined) {
-    analysis.diagnostics.push(diagnostic('clock-unreadable', range, `Cannot read the clock file ${clock} (looked for ${clockPath}): check the path, which is relative to this file.`));
+    const reason = why ?? `no such file (looked for ${clockPath}); check the path, which is relative to this file`;
+    analysis.diagnostics.push(diagnostic('clock-unreadable', range, `Cannot read the clock file ${clock}: ${reason}.`));
     return null;
   }
   const read = clocks.get(text, readClock);
   const errors = read.diagnostics.filter((d) => d.severity === 'error');
   if (errors.length > 0 || !read.hardware) {
-    const first = errors[0];
+    // The first error in file order: the one a reader meets first when opening the clock file.
+    const first = [...errors].sort((a, b) => a.range.start.line - b.range.start.line || a.range.start.character - b.range.start.character)[0];
     const where = first ? ` (line ${first.range.start.line + 1}: ${first.message.replace(/\.$/, '')})` : '';
     const count = errors.length === 1 ? '1 error' : `${errors.length} errors`;
     analysis.diagnostics.push(diagnostic('clock-invalid', range, `The clock file ${clock} has ${count}${where} — fix it there first.`));

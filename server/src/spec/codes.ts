@@ -84,8 +84,8 @@ export const CODES = {
   },
   'clock-unreadable': {
     severity: 'error',
-    title: 'Clock file not found',
-    help: 'The clock file named by `clock:` cannot be read. The path is relative to the wave file; check the spelling and that the file exists.',
+    title: 'Clock file cannot be read',
+    help: 'The clock file named by `clock:` cannot be read: it does not exist, it is not a regular file (a folder, a FIFO, a device), it is too large, or it lies outside the workspace folder (after resolving symbolic links; specs read nothing outside the folders being checked). The path is relative to the wave file.',
   },
   'clock-invalid': {
     severity: 'error',

@@ -63,4 +63,9 @@ export interface Analysis {
 export interface SpecHost {
   /** Text of the file, or undefined when it cannot be read. */
   readFile(path: string): string | undefined;
+  /**
+   * Why readFile answered undefined for `path` (completes "Cannot read X: …", e.g. "it lies
+   * outside the workspace folder …"); hosts that cannot tell leave it out.
+   */
+  whyUnreadable?(path: string): string | undefined;
 }
