@@ -13,6 +13,8 @@ const FIXTURES = path.join(ROOT, 'test', 'export', 'fixtures');
 const CLOCK = fs.readFileSync(path.join(FIXTURES, 'tone-lab.clock.yaml'), 'utf8');
 const WAVE = fs.readFileSync(path.join(FIXTURES, 'tone-lab.wave.yaml'), 'utf8');
 const scratch: string[] = [];
+/** `../` eight times, then etc/passwd: far enough up to leave any scratch folder. */
+const PASSWD = `${'../'.repeat(8)}etc/passwd`;
 
 beforeAll(() => buildChecker(), 60_000);
 afterAll(() => {
@@ -46,9 +48,9 @@ function diagnosticsOf(report: { files: Array<{ path: string; diagnostics: Array
 }
 
 describe('a spec reads only regular files inside its workspace', () => {
-  it('refuses clock: ../../../../etc/passwd with a ranged finding on the clock: value', () => {
+  it('refuses clock: <up and out>/etc/passwd with a ranged finding on the clock: value', () => {
     const { ws } = workspace();
-    waveReading(ws, '../../../../../../../../etc/passwd');
+    waveReading(ws, PASSWD);
     const { run, report } = checkJson(ws);
     expect(run.code).toBe(1);
     const [d] = diagnosticsOf(report, 'probe.wave.yaml');

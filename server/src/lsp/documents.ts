@@ -172,7 +172,7 @@ export class SpecDocuments {
   /** The analysis of an open document's text with a quick fix applied (its preview); never cached. */
   analyzeEdited(uri: string, text: string): Analysis | undefined {
     if (!this.documents.get(uri)) return undefined;
-    return this.analyze(uriToPath(uri), text, this.host(new Set()));
+    return this.analyze(uriToPath(uri), text, this.host(new Set(), uriToPath(uri)));
   }
 
   /** Drops cached analyses that read `path`, so the next request re-analyses them. */
