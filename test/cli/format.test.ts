@@ -52,8 +52,9 @@ describe('text report', () => {
     expect(rows[1]).toContain('3.997802734375 MHz');
     expect(rows[1]).toContain('-549 ppm');
     expect(rows[2]).toContain('÷1+244/256');
-    // 8 ns·sqrt(244·12)/256 = 1.6909 ns (derived from RMS = T_sys·sqrt(p(1−p))).
-    expect(rows[2]).toContain('rms 1.69 ns, TIE 1.2 ns');
+    // 8 ns·sqrt(244·12)/256 = 1.6909 ns (derived from RMS = T_sys·sqrt(p(1−p))); TIE RMS
+    // 8 ns·sqrt(64² − 1)/(64·sqrt(12)) = 2.309 ns (derived, pattern of 64 periods).
+    expect(rows[2]).toContain('rms 1.69 ns, TIE 2.31 ns');
     expect(rows[3]).toContain('no plan');
   });
   it('lists findings as path:line:col (1-based) in line order, then a summary', () => {
