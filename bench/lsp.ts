@@ -17,11 +17,12 @@ const FILES = 100;
 const EDITS = 60;
 const SHAPES = ['sine', 'square', 'triangle', 'sawtooth'] as const;
 
-const CLOCK = `# bench.clock.yaml — an invented board for the language-server benchmark.
-system-clock: 150 MHz
+const CLOCK = `# bench.clock.yaml — an invented board for the language-server benchmark (no real part's
+# defaults): the planner benchmark's 245.76 MHz clock and 18-bit divider with 6 fraction bits.
+system-clock: 245.76 MHz
 divider:
-  integer: { min: 1, max: 65535 }
-  fraction-bits: 8
+  integer: { min: 1, max: 262143 }
+  fraction-bits: 6
 dac:
   bits: 12
   sample-bytes: 2

@@ -44,7 +44,7 @@ async function run() {
   await vscode.window.showTextDocument(doc);
   assert.equal(doc.languageId, 'waveplan-wave', '*.wave.yaml opens as waveplan-wave');
 
-  // examples/bench-rig.wave.yaml header: pump-trigger is an error; chopper-ref and legacy-sweep warn.
+  // examples/bench-rig.wave.yaml header: counter-check is an error; chopper-ref and legacy-sweep warn.
   const diagnostics = await until(() => {
     const ours = vscode.languages.getDiagnostics(uri).filter((d) => d.source === 'waveplan');
     return ours.some((d) => d.severity === vscode.DiagnosticSeverity.Error) ? ours : null;
