@@ -1,36 +1,23 @@
 #!/usr/bin/env bash
 # Prepares what the end-to-end suite needs: Debian's Chromium and the libraries the browser-hosted
-# editor builds against (apt, as root), and a tools folder of its own (.e2e-tools/, git-ignored)
-# holding Node 24, the editor (code-server) and playwright-core. The extension's own dependencies
+# editor builds against (scripts/test-setup.sh: apt as root, else the exact command to run), and a
+# tools folder of its own (in the user's cache, outside the repository) holding Node 24, the editor
+# (code-server) and playwright-core. The extension's own dependencies
 # are never touched. Idempotent: each step is skipped when its result is already there, so a second
 # run takes about a second. test/e2e/README.md says why this shape was chosen.
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
-TOOLS="${WAVEPLAN_E2E_TOOLS:-$ROOT/.e2e-tools}"
+# The tools live in the user's cache, shared by every clone on the machine (test/e2e/editor.mjs
+# finds them the same way); WAVEPLAN_E2E_TOOLS moves them.
+TOOLS="${WAVEPLAN_E2E_TOOLS:-${XDG_CACHE_HOME:-${HOME:-$ROOT}/.cache}/waveplan/e2e-tools}"
 CODE_SERVER_VERSION="4.139.1"
 NODE_MAJOR="24"
 
 log() { printf 'e2e-setup: %s\n' "$*"; }
 
 # --- system packages -------------------------------------------------------------------------
-APT_PACKAGES=(chromium libkrb5-dev libxkbfile-dev libsecret-1-dev libx11-dev)
-missing=()
-for p in "${APT_PACKAGES[@]}"; do
-  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q 'install ok installed' || missing+=("$p")
-done
-if ((${#missing[@]})); then
-  if [[ $(id -u) -ne 0 ]]; then
-    log "missing Debian packages: ${missing[*]} (run this script as root, or install them yourself)"
-    exit 1
-  fi
-  log "installing ${missing[*]}"
-  export DEBIAN_FRONTEND=noninteractive
-  # Others may hold the dpkg lock (unattended upgrades, a parallel setup): wait for it, do not fail.
-  apt-get -o DPkg::Lock::Timeout=600 update -qq
-  apt-get -o DPkg::Lock::Timeout=600 install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
-fi
-[[ -x /usr/bin/chromium ]] || { log "/usr/bin/chromium not found after install"; exit 1; }
+bash "$ROOT/scripts/test-setup.sh" e2e
 
 # --- the tools folder ------------------------------------------------------------------------
 # Run through `npm run`, this script inherits npm's settings as npm_config_* variables; the nested
@@ -39,6 +26,8 @@ fi
 while IFS= read -r name; do unset "$name"; done < <(compgen -e | grep -i '^npm_')
 mkdir -p "$TOOLS"
 cd "$TOOLS"
+# One setup at a time per tools folder: clones sharing the cache may start their tests together.
+if command -v flock >/dev/null; then exec 9>"$TOOLS/.setup.lock"; flock 9; fi
 # Without a package.json of its own, npm would walk up and install into the project.
 # (`npm init -y` refuses the folder's dotted name, so the manifest is written here.)
 [[ -f package.json ]] || printf '{ "name": "waveplan-e2e-tools", "private": true }\n' > package.json

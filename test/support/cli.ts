@@ -79,3 +79,58 @@ export function golden(name: string, actual: string): { expected: string; actual
 export function scratchDir(prefix: string): string {
   return fs.mkdtempSync(path.join(os.tmpdir(), `waveplan-${prefix}-`));
 }
+
+/**
+ * Starts a language server command over stdio, sends `initialize` (LSP 3.17 base protocol:
+ * Content-Length framing) and resolves with the raw reply once it carries the capabilities.
+ */
+export async function initializeOverStdio(command: string, args: readonly string[], cwd: string): Promise<string> {
+  const { spawn } = await import('node:child_process');
+  const child = spawn(command, [...args], { cwd });
+  const body = JSON.stringify({ jsonrpc: '2.0', id: 1, method: 'initialize', params: { processId: process.pid, rootUri: null, capabilities: {} } });
+  child.stdin.write(`Content-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`);
+  try {
+    return await new Promise<string>((resolve, reject) => {
+      let seen = '';
+      let errors = '';
+      const timer = setTimeout(() => reject(new Error(`no initialize reply; got ${seen} ${errors}`)), 20_000);
+      child.stderr.on('data', (chunk: Buffer) => (errors += chunk.toString('utf8')));
+      child.on('exit', (code) => {
+        clearTimeout(timer);
+        reject(new Error(`server exited with ${code}: ${errors}`));
+      });
+      child.stdout.on('data', (chunk: Buffer) => {
+        seen += chunk.toString('utf8');
+        if (seen.includes('"capabilities"')) {
+          clearTimeout(timer);
+          resolve(seen);
+        }
+      });
+    });
+  } finally {
+    child.kill();
+  }
+}
+
+/**
+ * Runs the SARIF standard's own validator (`@microsoft/sarif-multitool`, OASIS SARIF 2.1.0) on a
+ * log and returns its error- and warning-level findings ([] when the log is clean); writes its
+ * report into `dir`. Throws when the validator itself fails.
+ */
+export function validateSarif(file: string, dir: string): { level: string; rule: string; message: string }[] {
+  const tool = path.join(ROOT, 'node_modules/@microsoft/sarif-multitool-linux/Sarif.Multitool');
+  // Its install script is skipped by npm 11; the run bit is all it would have set (DEVELOPERS.md, "Toolchain notes").
+  fs.chmodSync(tool, fs.statSync(tool).mode | 0o100);
+  const reportFile = path.join(dir, 'validator-report.sarif');
+  const validate = spawnSync(tool, ['validate', file, '-o', reportFile], { encoding: 'utf8', timeout: 120_000 });
+  if (validate.status !== 0) throw new Error(`sarif-multitool failed (${validate.status}): ${validate.stdout}${validate.stderr}`);
+  const report = JSON.parse(fs.readFileSync(reportFile, 'utf8'));
+  const rules = report.runs[0].tool.driver.rules ?? [];
+  return (report.runs[0].results ?? [])
+    .map((r: { level?: string; ruleIndex?: number; ruleId: string; message: unknown }) => ({
+      level: r.level ?? rules[r.ruleIndex ?? -1]?.defaultConfiguration?.level ?? 'warning',
+      rule: r.ruleId,
+      message: JSON.stringify(r.message),
+    }))
+    .filter((r: { level: string }) => r.level === 'error' || r.level === 'warning');
+}
