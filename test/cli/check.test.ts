@@ -2,7 +2,8 @@
 // (examples/) and on the fixtures under test/cli/fixtures/.
 // Golden files live in test/cli/golden/; regenerate them with
 //   UPDATE_GOLDEN=1 npx vitest run test/cli
-// and review the diff before committing.
+// and review the diff before committing; then `node scripts/update-readme-demo.mjs` refreshes the
+// README's demo block. test/cli/golden-figures.test.ts checks the golden plans independently.
 
 import * as fs from 'node:fs';
 import * as path from 'node:path';

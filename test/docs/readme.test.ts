@@ -1,6 +1,7 @@
 // The README says what happens: its two commands are the package's scripts and the CI entry runs
 // the same test command; its demo block is the checker's own output (the golden text) and the
-// demo's real last line, and the demo exits 0 on its deliberate findings.
+// demo's real last line (scripts/update-readme-demo.mjs rewrites it), and the demo exits 0 on its
+// deliberate findings.
 
 import { spawnSync } from 'node:child_process';
 import * as path from 'node:path';
@@ -44,13 +45,13 @@ describe("the README's demo block", () => {
     const goldenLines = read('test/cli/golden/examples.txt').split('\n');
     const shown = block.slice(0, -1).filter((l) => l.trim() !== '…');
     expect(shown.length).toBeGreaterThanOrEqual(4);
-    expect(shown.filter((l) => !goldenLines.includes(l))).toEqual([]);
+    expect(shown.filter((l) => !goldenLines.includes(l)), 'run node scripts/update-readme-demo.mjs').toEqual([]);
   });
 
   it("ends with the demo's own last line, which names the deliberate findings, and the demo exits 0", () => {
     const lines = demo.stdout.trimEnd().split('\n');
     expect(demo.status).toBe(0);
-    expect(lines[lines.length - 1]).toBe(block[block.length - 1]);
+    expect(lines[lines.length - 1], 'run node scripts/update-readme-demo.mjs').toBe(block[block.length - 1]);
     expect(lines[lines.length - 1]).toMatch(/^demo: as intended — .*1 error.*2 warnings/);
     // The checker's own report comes first, unchanged.
     expect(demo.stdout).toContain(read('test/cli/golden/examples.txt'));

@@ -7,7 +7,7 @@
  *
  * !!! UNCHECKED EXPORT: written with --force although the spec has 1 error. !!!
  * !!! Tables and dividers below may be wrong. Fix the spec and export again before shipping. !!!
- * !!! 62:16 out-of-tolerance: The best plan is divider 17, 10126 samples, 1153 cycles -> ~1.23456774059 MHz (?0.04813 ppm), outside +/-0.02 ppm: widen the tolerance, allow jitter, or change the clock.
+ * !!! 62:16 out-of-tolerance: The best plan is divider 17, 10126 samples, 1153 cycles -> ~1.23456774059 MHz (-48.1 ppb), outside +/-0.02 ppm: widen the tolerance, allow jitter, or change the clock.
  */
 
 #ifndef WAVEPLAN_BENCH_RIG_H
@@ -70,7 +70,7 @@ extern const uint16_t bench_rig_quadrature_ref_table[BENCH_RIG_QUADRATURE_REF_TA
 /*
  * ultrasonic-carrier (bench_rig_ultrasonic_carrier): sine, 2.5 Vpp around 1.65 V
  * target   40.127 kHz +/- 4.0127 Hz
- * achieved ~40.1269999858 kHz (error ~-14.19 uHz, -0.0003537 ppm; verdict within-tolerance)
+ * achieved ~40.1269999858 kHz (error ~-14.19 uHz, -354 ppt; verdict within-tolerance)
  * f_s = 184.32 MHz / 310 = ~594.580645161 kHz; 11365 samples hold 767 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
@@ -127,7 +127,7 @@ extern const uint16_t bench_rig_audio_tone_table[BENCH_RIG_AUDIO_TONE_TABLE_LENG
 /*
  * counter-check (bench_rig_counter_check): sine, 3.29919 Vpp around 1.6496 V
  * target   1.2345678 MHz +/- 24.691356 mHz
- * achieved ~1.23456774059 MHz (error ~-59.41 mHz, -0.04813 ppm; verdict out-of-tolerance)
+ * achieved ~1.23456774059 MHz (error ~-59.41 mHz, -48.1 ppb; verdict out-of-tolerance)
  * f_s = 184.32 MHz / 17 = ~10.8423529412 MHz; 10126 samples hold 1153 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
@@ -146,7 +146,7 @@ extern const uint16_t bench_rig_counter_check_table[BENCH_RIG_COUNTER_CHECK_TABL
 /*
  * chopper-ref (bench_rig_chopper_ref): sine, 3.29919 Vpp around 1.6496 V
  * target   712.3456 kHz +/- 0.7123456 mHz
- * achieved ~712.34560016 kHz (error ~+160 uHz, +0.0002246 ppm; verdict fractional)
+ * achieved ~712.34560016 kHz (error ~+160 uHz, +225 ppt; verdict fractional)
  * f_s = 184.32 MHz / (32 + 10/32) = ~5.70429400387 MHz; 6190 samples hold 773 cycle(s), open span
  * divider jitter: period 5.43 ns pk-pk, 2.51 ns rms; TIE 5.09 ns pk-pk
  * seam: ok
