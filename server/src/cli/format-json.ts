@@ -6,6 +6,7 @@ import { isExactDecimal, toDecimal, toNumber, type Rational } from '../../../sha
 import type { PlanFigures } from '../planning/types';
 import type { OutputAnalysis, SpecDiagnostic } from '../spec/types';
 import { sortedDiagnostics, tally, type CheckedFile } from './checked';
+import { clockCandidatesJson } from './clock-json';
 
 export interface JsonDiagnostic {
   severity: string;
@@ -120,6 +121,7 @@ export function jsonReport(files: readonly CheckedFile[], version: string): Json
       diagnostics: sortedDiagnostics(f.analysis.diagnostics).map(diagnosticJson),
       outputs: f.analysis.outputs.map(outputJson),
       memory: f.analysis.memory,
+      ...(f.analysis.kind === 'wave' ? { clockCandidates: clockCandidatesJson(f.analysis) } : {}),
     })),
     summary: tally(files),
   };
