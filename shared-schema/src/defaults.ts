@@ -23,6 +23,13 @@ export const DEFAULT_MIN_SAMPLES_PER_CYCLE: Record<Shape, number> = { sine: 8, s
  */
 export const DEFAULT_WHOLE_SAMPLES_PER_CYCLE: Record<Shape, boolean> = { sine: false, square: true, triangle: true, sawtooth: true };
 
+/**
+ * How far a square's duty may be from the asked one: a duty set to within about a percentage point
+ * is what a square from a timer or a table is usually asked for (common practice), and 50 samples
+ * per cycle then set any duty (S max of a square = 1/(2·duty-tolerance)).
+ */
+export const DEFAULT_DUTY_TOLERANCE = '1 %';
+
 export const DEFAULT_REASONS = {
   tolerance:
     'about the tolerance of a common crystal (tens of ppm, common practice), so a smaller plan error is lost in the clock\'s own error',
@@ -34,6 +41,10 @@ export const DEFAULT_REASONS = {
   } satisfies Record<Shape, string>,
   amplitude: "the DAC's full scale less one LSB, as Vpp, so the waveform spans codes 0 to 2^bits − 1 (the highest code is one LSB below full scale)",
   offset: 'half the default amplitude, so the default waveform just fits',
+  maxSamplesPerCycle:
+    "by shape, where neighbouring samples come within one LSB of each other (more samples only repeat DAC codes), with A the swing in LSB (amplitude / (full scale / 2^bits)): sine π / asin(1/A) ≈ π·A (its steepest step is A·sin(π/S)), triangle 2·A, sawtooth A; square 1/(2·duty-tolerance), the S that sets any duty to within duty-tolerance (none when it is 0); never below min-samples-per-cycle",
+  dutyTolerance:
+    'a duty within about a percentage point, what a square wave is usually asked for (common practice); 50 samples per cycle set any duty that closely',
   wholeSamplesPerCycle:
     'true for square, triangle and sawtooth (their edges, corners and resets must land on the same samples every cycle), false for sine',
 } as const;

@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import {
   DEFAULT_DUTY,
+  DEFAULT_DUTY_TOLERANCE,
   DEFAULT_JITTER,
   DEFAULT_MIN_SAMPLES_PER_CYCLE,
   DEFAULT_REASONS,
@@ -46,6 +47,11 @@ export const outputSchema = z.strictObject({
     'Square waves only: the share of the cycle spent high, as `50 %` or `0.5`.',
     DEFAULT_DUTY,
   ),
+  'duty-tolerance': optional(
+    quantity({ kind: 'duty', min: 0, max: 1, maxExclusive: true }),
+    `Square waves only: how far the duty the table really has (a whole number of high samples per cycle) may be from \`duty\`, in points of the cycle, e.g. \`1 %\`; plans that hold the duty this closely are preferred, and waveplan warns when no plan within the frequency tolerance does. The default is ${DEFAULT_REASONS.dutyTolerance}.`,
+    DEFAULT_DUTY_TOLERANCE,
+  ),
   frequency: required(
     quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ }),
     'f_target, the output frequency, e.g. `3.997802734375 MHz`; exact as written.',
@@ -59,6 +65,11 @@ export const outputSchema = z.strictObject({
     quantity({ kind: 'number', min: 0, minExclusive: true, max: MAX_TABLE_LENGTH }),
     `Floor on S = N/M, the samples per cycle. Defaults: ${floors}. Sine: ${DEFAULT_REASONS.minSamplesPerCycle.sine}; square: ${DEFAULT_REASONS.minSamplesPerCycle.square}; triangle and sawtooth: ${DEFAULT_REASONS.minSamplesPerCycle.triangle}. A sine must stay above 2 (Nyquist).`,
     `by shape: ${floors}`,
+  ),
+  'max-samples-per-cycle': optionalDerived(
+    quantity({ kind: 'number', min: 0, minExclusive: true, max: MAX_TABLE_LENGTH }),
+    'S max, the samples per cycle beyond which more samples buy nothing on this DAC: a preference, not a limit. Among the plans within tolerance, those with S ≤ S max come first and the largest S up to S max is chosen; a plan above it is used only when none at or below it meets the tolerance.',
+    DEFAULT_REASONS.maxSamplesPerCycle,
   ),
   'whole-samples-per-cycle': optionalDerived(
     z.boolean(),

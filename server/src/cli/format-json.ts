@@ -31,6 +31,8 @@ export interface JsonOutput {
   withinTolerance: boolean;
   plan: JsonPlan | null;
   nearestJitterFree: JsonPlan | null;
+  /** S max the ranking used (max-samples-per-cycle or its default); null for none. */
+  maxSamplesPerCycle: number | null;
 }
 
 export interface JsonFile {
@@ -109,6 +111,7 @@ function outputJson(o: OutputAnalysis): JsonOutput {
     withinTolerance: o.planning.withinTolerance,
     plan: o.planning.plan ? planJson(o.planning.plan) : null,
     nearestJitterFree: o.planning.nearestJitterFree ? planJson(o.planning.nearestJitterFree) : null,
+    maxSamplesPerCycle: o.request.maxSamplesPerCycle ? toNumber(o.request.maxSamplesPerCycle) : null,
   };
 }
 

@@ -45,6 +45,8 @@ const ranked = new Map<number, number>();
 let headKey = new Float64Array(512);
 let headK = new Float64Array(512);
 let productFloor = new Float64Array(256);
+/** Largest product K = J·N of each M under the S ceiling (N ≤ M·S ceiling). */
+let productCeil = new Float64Array(256);
 
 /**
  * Offers the plans of least error to the leader. False when the search declined (too many M,
@@ -77,7 +79,10 @@ export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): b
     : (m: number, k: number): number => Math.abs((C * m) / k - T);
   const noise = exactKeys ? 0 : 1e-14 * T;
 
-  if (productFloor.length <= mTop) productFloor = new Float64Array(2 * mTop + 2);
+  if (productFloor.length <= mTop) {
+    productFloor = new Float64Array(2 * mTop + 2);
+    productCeil = new Float64Array(2 * mTop + 2);
+  }
   if (headKey.length <= 2 * mTop + 1) {
     headKey = new Float64Array(4 * mTop + 4);
     headK = new Float64Array(4 * mTop + 4);
@@ -109,12 +114,14 @@ export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): b
       break;
     }
     const kLo = jMin * shortest;
+    const kHi = d.jMax * longestLength(d, m);
     productFloor[m] = kLo;
+    productCeil[m] = kHi;
     // A residue of 0 is an exact plan, and the domain has none (exact.ts ran first).
-    const down = Math.min(kMax, exactKeys && rest === 0 ? kFloor - 1 : kFloor);
+    const down = Math.min(kHi, exactKeys && rest === 0 ? kFloor - 1 : kFloor);
     const up = Math.max(kLo, kFloor + 1);
     const keyDown = down >= kLo ? keyOf(m, down) : Infinity;
-    const keyUp = up <= kMax ? keyOf(m, up) : Infinity;
+    const keyUp = up <= kHi ? keyOf(m, up) : Infinity;
     headKey[2 * m] = keyDown;
     headK[2 * m] = down;
     headKey[2 * m + 1] = keyUp;
@@ -147,7 +154,7 @@ export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): b
       if (++pairs > limits.maxPairs) return false;
       if (offerValue(d, lead, m, k) && key < bestKey) bestKey = key;
       const next = k + step;
-      if (next < productFloor[m]! || next > kMax) continue;
+      if (next < productFloor[m]! || next > productCeil[m]!) continue;
       const nextKey = keyOf(m, next);
       if (nextKey <= limit) heap.push(nextKey, m, next, step);
       else if (nextKey <= bound()) {
@@ -180,6 +187,28 @@ function shortestLength(d: Domain, m: number): number {
   let n = Math.max(d.nMin, Math.ceil(m * d.sFloorF * (1 - EDGE)));
   while (n <= d.nMax && maxCycles(d, n) < m) n++;
   return n <= d.nMax ? n : 0;
+}
+
+/** The longest allowed table holding M cycles under the S ceiling (N max without one); 0 when none does. */
+function longestLength(d: Domain, m: number): number {
+  if (d.cNum === 0n) return d.nMax;
+  // floor(M·cNum/cDen), in doubles while the product is exact, corrected by one either way.
+  const cNum = Number(d.cNum);
+  const cDen = Number(d.cDen);
+  let n: number;
+  if (m * cNum < 2 ** 52 && cDen < 2 ** 52) {
+    n = Math.floor((m * cNum) / cDen);
+    if (n * cDen > m * cNum) n--;
+    else if ((n + 1) * cDen <= m * cNum) n++;
+    n = Math.min(n, d.nMax);
+  } else {
+    const cap = (BigInt(m) * d.cNum) / d.cDen;
+    n = cap >= BigInt(d.nMax) ? d.nMax : Number(cap);
+  }
+  if (!d.powerOfTwo) return n;
+  let best = 0;
+  for (const len of d.lengths) if (len <= n) best = len;
+  return best;
 }
 
 /** Offers the best plans with f_out = C·M/K, once per value; true when that value has plans. */

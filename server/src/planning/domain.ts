@@ -3,7 +3,7 @@
 // f_out = C·M/(J·N) with C = f_sys·2^k (k = 0 for the jitter-free problem). Everything the hot
 // loop needs is precomputed here, both exact (bigint) and as doubles.
 
-import { type Rational, rat, mul, div, ceil, toNumber, sign } from '../../../shared-schema/src/rational';
+import { type Rational, rat, mul, div, ceil, cmp, toNumber, sign } from '../../../shared-schema/src/rational';
 import type { Hardware, PlanRequest } from './types';
 
 export type Mode = 'jitter-free' | 'fractional';
@@ -35,6 +35,14 @@ export interface Domain {
   /** sNum and sDen as doubles when both are below 2^40 (else NaN: use the bigints). */
   sNumF: number;
   sDenF: number;
+  /**
+   * S ceiling = cNum/cDen (a plan keeps N·cDen ≤ M·cNum), or cNum = 0n for none. The searches
+   * honour it as they honour the floor; the ranking (choose.ts) uses it to plan within S max.
+   */
+  cNum: bigint;
+  cDen: bigint;
+  /** The ceiling as a double (Infinity when none), never above N max. */
+  sCeilF: number;
   /** Exact error pieces: |errorHz| = |kM·M − kJN·J·N| / (den·J·N). */
   kM: bigint;
   kJN: bigint;
@@ -48,17 +56,36 @@ export function maxCycles(d: Domain, n: number): number {
   return Number((BigInt(n) * d.sDen) / d.sNum);
 }
 
-/** The jitter-free (F = 0) domain, or null when no plan can exist. */
-export function jitterFreeDomain(hw: Hardware, req: PlanRequest): Domain | null {
-  return makeDomain(hw, req, 'jitter-free');
+/** Fewest cycles a table of n samples may hold under the S ceiling: ceil(n / S ceiling), at least 1. */
+export function minCycles(d: Domain, n: number): number {
+  if (d.cNum === 0n) return 1;
+  const top = n * Number(d.cDen);
+  const c = Number(d.cNum);
+  if (top < 2 ** 52 && c < 2 ** 52) return Math.max(1, Math.ceil(top / c));
+  const q = BigInt(n) * d.cDen;
+  return Math.max(1, Number((q + d.cNum - 1n) / d.cNum));
+}
+
+/** a/b keeps S = b/a ≤ the S ceiling (always true without one). */
+export function keepsCeiling(d: Domain, a: number, b: number): boolean {
+  if (d.cNum === 0n) return true;
+  return BigInt(b) * d.cDen <= BigInt(a) * d.cNum;
+}
+
+/**
+ * The jitter-free (F = 0) domain, or null when no plan can exist. `ceiling` is an upper bound on
+ * S = N/M (none when null); a ceiling below the floor leaves no plan.
+ */
+export function jitterFreeDomain(hw: Hardware, req: PlanRequest, ceiling: Rational | null = null): Domain | null {
+  return makeDomain(hw, req, 'jitter-free', ceiling);
 }
 
 /** The fractional domain (every F), or null when no plan can exist. */
-export function fractionalDomain(hw: Hardware, req: PlanRequest): Domain | null {
-  return makeDomain(hw, req, 'fractional');
+export function fractionalDomain(hw: Hardware, req: PlanRequest, ceiling: Rational | null = null): Domain | null {
+  return makeDomain(hw, req, 'fractional', ceiling);
 }
 
-function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode): Domain | null {
+function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode, ceiling: Rational | null): Domain | null {
   const k = mode === 'fractional' ? hw.divider.fractionBits : 0;
   const scale = 2 ** k;
   const clock = mul(hw.systemClockHz, rat(BigInt(scale)));
@@ -85,6 +112,9 @@ function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode): Domain | null {
     nMax = lengths[lengths.length - 1]!;
   }
   if (!(nMin <= nMax)) return null;
+  if (ceiling !== null && (sign(ceiling) <= 0 || cmp(ceiling, sFloor) < 0)) return null;
+  // S = N/M ≤ N max always: a ceiling at or above it rules nothing out.
+  if (ceiling !== null && cmp(ceiling, rat(BigInt(nMax))) >= 0) ceiling = null;
 
   return {
     mode,
@@ -105,6 +135,9 @@ function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode): Domain | null {
     sFloorF: toNumber(sFloor),
     sNumF: sFloor.num < 2n ** 40n && sFloor.den < 2n ** 40n ? Number(sFloor.num) : NaN,
     sDenF: sFloor.num < 2n ** 40n && sFloor.den < 2n ** 40n ? Number(sFloor.den) : NaN,
+    cNum: ceiling === null ? 0n : ceiling.num,
+    cDen: ceiling === null ? 1n : ceiling.den,
+    sCeilF: ceiling === null ? Infinity : Math.min(toNumber(ceiling), nMax),
     kM: clock.num * target.den,
     kJN: target.num * clock.den,
   };

@@ -4,7 +4,7 @@
 // With f_out/C = a/b in lowest terms, (J, N, M) has that f_out iff M = a·J·N/b is a whole
 // number, i.e. b divides J·N. Writing n for a divisor of b that some allowed N is a multiple of,
 // the dividers that pair with it are exactly the multiples of b/n. Every such plan has
-// S = N/M = b/(a·J), so the S floor is one upper bound on J, and among them the order of rank.ts
+// S = N/M = b/(a·J), so the S floor is one upper bound on J (an S ceiling a lower one), and among them the order of rank.ts
 // reduces to: (fractional) the quietest F, then the smallest J, then the shortest N.
 // So each divisor n contributes its best multiple of b/n, and the Leader keeps the best of those.
 
@@ -32,14 +32,16 @@ export function offerExactPlans(d: Domain, lead: Leader): boolean {
 export function offerPlansOfRatio(d: Domain, lead: Leader, a: number, b: number): boolean {
   // S = b/(a·J) ≥ sNum/sDen  ⇔  J ≤ b·sDen / (a·sNum).
   const jHi = Math.min(d.jMax, floorOfRatio(b, d.sDen, a, d.sNum));
-  if (jHi < d.jMin) return false;
+  // S ≤ cNum/cDen  ⇔  J ≥ b·cDen / (a·cNum).
+  const jLo = d.cNum === 0n ? d.jMin : Math.max(d.jMin, ceilOfRatio(b, d.cDen, a, d.cNum));
+  if (jHi < jLo) return false;
   let found = false;
   // J is a multiple of b/n ≤ jHi, so n ≥ b/jHi.
   divisorsInRange(b, Math.ceil(b / jHi), d.nMax, divisorsOfB);
   for (const n of divisorsOfB) {
     if (lengthMultiple(d, n) === 0) continue;
     const g = b / n;
-    const t0 = Math.ceil(d.jMin / g);
+    const t0 = Math.ceil(jLo / g);
     const j = g * (d.scale > 1 ? quietestMultiple(d.scale, g, t0, Math.floor(jHi / g)) : t0);
     if (j === 0 || j > jHi) continue;
     // The shortest table for this J: a multiple of b/gcd(b, J), which divides n.
@@ -58,6 +60,14 @@ function floorOfRatio(x: number, y: bigint, u: number, v: bigint): number {
   const bottom = u * Number(v);
   if (top < 2 ** 52 && bottom < 2 ** 52) return Math.floor(top / bottom);
   const q = (BigInt(x) * y) / (BigInt(u) * v);
+  return q < 2n ** 52n ? Number(q) : 2 ** 52;
+}
+
+/** ceil(x·y / (u·v)) for positive integers, exactly (capped at 2^52). */
+function ceilOfRatio(x: number, y: bigint, u: number, v: bigint): number {
+  const top = BigInt(x) * y;
+  const bottom = BigInt(u) * v;
+  const q = (top + bottom - 1n) / bottom;
   return q < 2n ** 52n ? Number(q) : 2 ** 52;
 }
 

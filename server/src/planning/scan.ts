@@ -7,7 +7,7 @@
 // lifts it into range; when none does, a plain scan of that one J or N stands in.
 
 import { fareyFloat, FloatNeighbours } from './farey';
-import { type Domain, maxCycles } from './domain';
+import { type Domain, keepsCeiling, maxCycles, minCycles } from './domain';
 import type { Leader } from './rank';
 import { quietestMultiple } from './exact';
 
@@ -41,7 +41,10 @@ function keepsFloor(d: Domain, a: number, b: number): boolean {
   return BigInt(a) * d.sNum <= BigInt(b) * d.sDen;
 }
 
-/** The largest M/N ≤ 1/S floor with N ≤ N max, as [M, N]; computed once per domain. */
+/**
+ * The largest M/N ≤ 1/S floor with N ≤ N max (or, for the S ceiling, the smallest M/N ≥ 1/S
+ * ceiling), as [M, N]; computed once per domain.
+ */
 export interface Cap {
   m: number;
   n: number;
@@ -55,6 +58,8 @@ export class ScanJ {
     private readonly lead: Leader,
     private readonly cap: Cap | null,
     private readonly budget: WorkBudget = UNLIMITED(),
+    /** The smallest M/N ≥ 1/S ceiling, when the domain has a ceiling. */
+    private readonly ceilingCap: Cap | null = null,
   ) {
     this.ratio = d.targetF / d.clockF;
   }
@@ -67,9 +72,13 @@ export class ScanJ {
     fareyFloat(x, d.nMax, Infinity, out);
     const la = out.lowerNum, lb = out.lowerDen, ua = out.upperNum, ub = out.upperDen;
     let whole = true;
-    if (this.cap !== null && x >= this.cap.valueF * (1 - 1e-9)) whole = this.offer(j, this.cap.m, this.cap.n) && whole;
-    if (la >= 1 && keepsFloor(d, la, lb)) whole = this.offer(j, la, lb) && whole;
-    if (ub > 0 && keepsFloor(d, ua, ub)) whole = this.offer(j, ua, ub) && whole;
+    const cap = this.cap;
+    if (cap !== null && x >= cap.valueF * (1 - 1e-9) && keepsCeiling(d, cap.m, cap.n)) whole = this.offer(j, cap.m, cap.n) && whole;
+    // Below 1/S ceiling the best allowed M/N is the smallest one at or above it (the neighbours are out).
+    const low = this.ceilingCap;
+    if (low !== null && x <= low.valueF * (1 + 1e-9) && keepsFloor(d, low.m, low.n)) whole = this.offer(j, low.m, low.n) && whole;
+    if (la >= 1 && keepsFloor(d, la, lb) && keepsCeiling(d, la, lb)) whole = this.offer(j, la, lb) && whole;
+    if (ub > 0 && keepsFloor(d, ua, ub) && keepsCeiling(d, ua, ub)) whole = this.offer(j, ua, ub) && whole;
     if (!whole) this.lengths(j);
   }
 
@@ -98,12 +107,13 @@ export class ScanJ {
 
   private cycles(j: number, n: number, x: number): void {
     const top = maxCycles(this.d, n);
-    if (top < 1) return;
+    const least = minCycles(this.d, n);
+    if (top < least) return;
     // The best M is floor or ceil of x·N; one more each side covers the rounding of x.
     const m0 = Math.floor(x * n);
     let last = 0;
     for (let m = m0 - 1; m <= m0 + 2; m++) {
-      const mc = Math.min(Math.max(m, 1), top);
+      const mc = Math.min(Math.max(m, least), top);
       if (mc !== last) this.lead.offer(j, n, mc);
       last = mc;
     }
@@ -124,21 +134,25 @@ export class ScanN {
   run(n: number): void {
     const d = this.d;
     const top = maxCycles(d, n);
-    if (top < 1) return;
+    const least = minCycles(d, n);
+    if (top < least) return;
     fareyFloat(this.ratio * n, d.jMax, top, out);
     const la = out.lowerNum, lb = out.lowerDen, ua = out.upperNum, ub = out.upperDen;
     let whole = true;
-    if (la >= 1) whole = this.offer(n, top, la, lb) && whole;
-    if (ub > 0) whole = this.offer(n, top, ua, ub) && whole;
+    if (la >= 1) whole = this.offer(n, top, least, la, lb) && whole;
+    if (ub > 0) whole = this.offer(n, top, least, ua, ub) && whole;
     if (!whole) this.dividers(n, top);
   }
 
-  /** Offers m/j lifted into [J min, J max]; false when no multiple fits and it could matter. */
-  private offer(n: number, top: number, m: number, j: number): boolean {
+  /**
+   * Offers m/j lifted into [J min, J max] with M ≥ least (the S ceiling); false when no multiple
+   * fits and it could matter.
+   */
+  private offer(n: number, top: number, least: number, m: number, j: number): boolean {
     const d = this.d;
     const errF = this.lead.estimate(j, n, m);
     if (!this.lead.competitive(errF)) return true;
-    const k0 = Math.max(1, Math.ceil(d.jMin / j));
+    const k0 = Math.max(1, Math.ceil(d.jMin / j), Math.ceil(least / m));
     const k1 = Math.min(Math.floor(d.jMax / j), Math.floor(top / m));
     if (k0 > k1) return false;
     let k = k0;
@@ -155,19 +169,20 @@ export class ScanN {
   dividers(n: number, top: number): void {
     const d = this.d;
     const y = this.ratio * n;
-    if (d.jMax - d.jMin + 1 <= top) {
+    const least = minCycles(d, n);
+    if (d.jMax - d.jMin + 1 <= top - least + 1) {
       for (let j = d.jMin; j <= d.jMax && this.budget.take(); j++) {
         const m0 = Math.floor(y * j);
         let last = 0;
         for (let m = m0 - 1; m <= m0 + 2; m++) {
-          const mc = Math.min(Math.max(m, 1), top);
+          const mc = Math.min(Math.max(m, least), top);
           if (mc !== last) this.lead.offer(j, n, mc);
           last = mc;
         }
       }
       return;
     }
-    for (let m = 1; m <= top && this.budget.take(); m++) {
+    for (let m = least; m <= top && this.budget.take(); m++) {
       // For fixed N and M the error falls then rises in J: floor or ceil of M/y is best.
       const j0 = Math.floor(m / y);
       let last = 0;

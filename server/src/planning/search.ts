@@ -17,9 +17,12 @@ import { offerExactPlans } from './exact';
 import { searchByCycles } from './cycles';
 import type { Hardware, Plan, PlanRequest } from './types';
 
-/** The best plan with an integer divider (F = 0): no divider jitter. Null when none exists. */
-export function nearestJitterFree(hw: Hardware, req: PlanRequest): Plan | null {
-  return nearestJitterFreeBy(hw, req, 'auto');
+/**
+ * The best plan with an integer divider (F = 0): no divider jitter. Null when none exists.
+ * `ceiling` bounds S = N/M from above (the planner's S max); none when null.
+ */
+export function nearestJitterFree(hw: Hardware, req: PlanRequest, ceiling: Rational | null = null): Plan | null {
+  return nearestJitterFreeBy(hw, req, 'auto', ceiling);
 }
 
 /**
@@ -31,8 +34,8 @@ export function nearestJitterFree(hw: Hardware, req: PlanRequest): Plan | null {
 export type Strategy = 'auto' | 'walk' | 'cycles';
 
 /** nearestJitterFree with a chosen strategy. */
-export function nearestJitterFreeBy(hw: Hardware, req: PlanRequest, strategy: Strategy): Plan | null {
-  const d = jitterFreeDomain(hw, req);
+export function nearestJitterFreeBy(hw: Hardware, req: PlanRequest, strategy: Strategy, ceiling: Rational | null = null): Plan | null {
+  const d = jitterFreeDomain(hw, req, ceiling);
   if (d === null) return null;
   const c = solve(d, null, strategy);
   return c.best === null ? null : toPlan(hw, d, c.best, c.complete);
@@ -43,19 +46,19 @@ export function nearestJitterFreeBy(hw: Hardware, req: PlanRequest, strategy: St
  * An exact jitter-free plan is already the best fractional plan (error 0, p(1−p) = 0, and the
  * remaining keys agree), so the wider search runs only when the integer divider misses.
  */
-export function bestFractional(hw: Hardware, req: PlanRequest): Plan | null {
-  return bestFractionalBy(hw, req, 'auto');
+export function bestFractional(hw: Hardware, req: PlanRequest, ceiling: Rational | null = null): Plan | null {
+  return bestFractionalBy(hw, req, 'auto', ceiling);
 }
 
 /** bestFractional with a chosen strategy. */
-export function bestFractionalBy(hw: Hardware, req: PlanRequest, strategy: Strategy): Plan | null {
-  const whole = jitterFreeDomain(hw, req);
+export function bestFractionalBy(hw: Hardware, req: PlanRequest, strategy: Strategy, ceiling: Rational | null = null): Plan | null {
+  const whole = jitterFreeDomain(hw, req, ceiling);
   const wholeOutcome = whole === null ? null : solve(whole, null, strategy);
   const wholeBest = wholeOutcome === null ? null : wholeOutcome.best;
   if (hw.divider.fractionBits === 0 || (wholeBest !== null && sub(achieved(whole!, wholeBest), req.targetHz).num === 0n)) {
     return wholeBest === null ? null : toPlan(hw, whole!, wholeBest, wholeOutcome!.complete);
   }
-  const d = fractionalDomain(hw, req);
+  const d = fractionalDomain(hw, req, ceiling);
   if (d === null) return null;
   const seed = wholeBest === null ? null : { ...wholeBest, j: wholeBest.j * d.scale };
   const c = solve(d, seed, strategy);
@@ -114,19 +117,20 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
   // Error 0 cannot be beaten, and the exact plans are ranked without a scan.
   if (strategy !== 'walk' && offerExactPlans(d, lead)) return done();
   const budget = new WorkBudget(WALK_BUDGET);
-  const byJ = new ScanJ(d, lead, capOf(d), budget);
+  const byJ = new ScanJ(d, lead, capOf(d), budget, ceilingCapOf(d));
   const byN = new ScanN(d, lead, budget);
   const C = d.clockF;
   const T = d.targetF;
   const clampJ = (j: number): number => Math.min(d.jMax, Math.max(d.jMin, j));
 
   // Two cheap probes give an error bound before the span is fixed: the dividers where the
-  // longest table holds one cycle and where the S floor is met exactly.
-  byJ.run(clampJ(Math.ceil(C / (d.nMax * T))));
+  // longest table holds one cycle (or the S ceiling is met exactly) and where the S floor is.
+  const sTop = Math.min(d.nMax, d.sCeilF);
+  byJ.run(clampJ(Math.ceil(C / (sTop * T))));
   byJ.run(clampJ(Math.floor(C / (d.sFloorF * T))));
 
-  // f_out ≥ C/(J·N max) and f_out ≤ C/(J·S floor): outside these J can only do worse.
-  const jLow = (e: number): number => Math.max(d.jMin, Math.floor((C / (d.nMax * (T + e))) * (1 - EDGE)));
+  // f_out ≥ C/(J·min(N max, S ceiling)) and f_out ≤ C/(J·S floor): outside these J can only do worse.
+  const jLow = (e: number): number => Math.max(d.jMin, Math.floor((C / (sTop * (T + e))) * (1 - EDGE)));
   const jHigh = (e: number): number =>
     T - e > 0 ? Math.min(d.jMax, Math.ceil((C / (d.sFloorF * (T - e))) * (1 + EDGE))) : d.jMax;
   // f_out ≥ C/(J max·N): short tables can only do worse below this N.
@@ -167,6 +171,14 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
     }
   }
   return done(!budget.spent);
+}
+
+/** The smallest M/N ≥ 1/S ceiling with N ≤ N max; null without a ceiling. */
+function ceilingCapOf(d: Domain): Cap | null {
+  if (d.cNum === 0n) return null;
+  const { upper } = fareyNeighbours(rat(d.cDen, d.cNum), BigInt(d.nMax));
+  if (upper === null) return null;
+  return { m: Number(upper.num), n: Number(upper.den), valueF: Number(upper.num) / Number(upper.den) };
 }
 
 /** The largest positive M/N ≤ 1/S floor with N ≤ N max; null when there is none. */

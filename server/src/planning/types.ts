@@ -142,6 +142,13 @@ export interface OutputRequest extends PlanRequest {
   /** forbid = integer divider only. */
   jitter: 'forbid' | 'allow';
   pinned?: PinnedPlan;
+  /**
+   * S max: the samples per cycle beyond which more buy nothing on this DAC (a preference, not a
+   * limit: plans above it are chosen only when none at or below it meets the tolerance).
+   */
+  maxSamplesPerCycle?: Rational;
+  /** Square waves: the asked duty exactly and duty-tolerance (both as shares of the cycle). */
+  duty?: { asked: Rational; tolerance: Rational };
 }
 
 /**
@@ -156,11 +163,15 @@ export type Verdict = 'exact' | 'within-tolerance' | 'fractional' | 'out-of-tole
 
 export interface OutputPlanning {
   verdict: Verdict;
+  /** The plan the output's ranking chooses (planning/ranking.ts). */
   plan: PlanFigures | null;
-  /** The nearest jitter-free plan (always searched; the alternative an error names). */
+  /** The nearest jitter-free plan over the whole domain (the alternative an error names). */
   nearestJitterFree: PlanFigures | null;
-  /** The best fractional plan, when the hardware has fraction bits. */
-  bestFractional: PlanFigures | null;
+  /**
+   * The nearest plan over every divider I + F/2^k, when the hardware has fraction bits. Computed
+   * when first read (a lazy, memoised property): read it only where its value is used.
+   */
+  readonly bestFractional: PlanFigures | null;
   /** |errorHz| of `plan` ≤ toleranceHz. */
   withinTolerance: boolean;
 }

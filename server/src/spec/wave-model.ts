@@ -6,6 +6,7 @@ import { type Document, isMap, isScalar } from 'yaml';
 import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
 import {
   DEFAULT_DUTY,
+  DEFAULT_DUTY_TOLERANCE,
   DEFAULT_JITTER,
   DEFAULT_WHOLE_SAMPLES_PER_CYCLE,
   DEFAULT_MIN_SAMPLES_PER_CYCLE,
@@ -16,6 +17,7 @@ import {
 import { parseQuantity, toleranceHz } from '../../../shared-schema/src/quantity';
 import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-format';
 import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
+import { defaultMaxSamplesPerCycle } from '../planning/ceiling';
 import { pinnedProblems } from '../planning/pinned';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
@@ -91,10 +93,14 @@ export function buildOutput(
     push('nyquist', at('min-samples-per-cycle'), `A sine needs more than 2 samples per cycle (Nyquist): raise min-samples-per-cycle above 2 (8 is the default).`);
   }
 
-  if (entry.duty !== undefined && shape !== 'square') {
-    push('unused-key', keyRange(doc, lines, ['outputs', name, 'duty']) ?? at('duty'), `duty applies to square waves only: remove it from this ${shape}.`);
+  for (const key of ['duty', 'duty-tolerance'] as const) {
+    if (entry[key] !== undefined && shape !== 'square') {
+      push('unused-key', keyRange(doc, lines, ['outputs', name, key]) ?? at(key), `${key} applies to square waves only: remove it from this ${shape}.`);
+    }
   }
-  const duty = toNumber((get('duty') ?? parseDefault('duty', DEFAULT_DUTY)).value);
+  const dutyExact = (get('duty') ?? parseDefault('duty', DEFAULT_DUTY)).value;
+  const duty = toNumber(dutyExact);
+  const dutyTolerance = (get('duty-tolerance') ?? parseDefault('duty', DEFAULT_DUTY_TOLERANCE)).value;
 
   // Clipping is decided exactly: 3.3 V full scale holds 1.65 V ± 1.65 V.
   const fullScale = fromNumber(hw.dac.fullScaleV);
@@ -114,9 +120,20 @@ export function buildOutput(
     );
   }
 
+  // S max: as written (never below the floor, which rules), else derived from the swing in LSB.
+  const swingLsb = fullScale.num > 0n ? toNumber(div(mul(amplitude, rat(codes)), fullScale)) : 0;
+  const ceilingText = get('max-samples-per-cycle');
+  let maxSamplesPerCycle = ceilingText?.value ?? defaultMaxSamplesPerCycle(shape, swingLsb, dutyTolerance, minSamplesPerCycle);
+  if (maxSamplesPerCycle !== null && cmp(maxSamplesPerCycle, minSamplesPerCycle) < 0) {
+    push('samples-per-cycle', at('max-samples-per-cycle'), `max-samples-per-cycle ${toDecimal(maxSamplesPerCycle, 6)} is below min-samples-per-cycle ${toDecimal(minSamplesPerCycle, 6)}, so the floor rules: raise it or lower the floor.`);
+    maxSamplesPerCycle = minSamplesPerCycle;
+  }
+
   const request: OutputRequest = {
     targetHz,
     minSamplesPerCycle,
+    ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
+    ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
     waveform: { shape, duty, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset) },
     toleranceHz: toleranceHz(tolerance, targetHz),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),

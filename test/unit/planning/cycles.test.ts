@@ -72,6 +72,45 @@ describe('cycles search = exhaustive search (oracle: test/support/exhaustive.ts,
   });
 });
 
+describe('cycles search with an S ceiling = exhaustive search restricted to S ≤ S max (oracle: test/support/exhaustive.ts)', () => {
+  it('the forced cycles search finds the identical plan on 300 seeded low-target domains with a ceiling', () => {
+    const rnd = seededRandom(0xc1c1_ce11);
+    const mismatches: string[] = [];
+    let withPlan = 0;
+    for (let i = 0; i < 300; i++) {
+      const { hw, req, label } = lowTargetCase(rnd, i, 60);
+      const f = Number(req.minSamplesPerCycle.num) / Number(req.minSamplesPerCycle.den);
+      const ceiling = rnd() < 0.5 ? rat(Math.ceil(f) + Math.floor(rnd() * 30)) : mul(req.minSamplesPerCycle, rat(5, 2));
+      for (const fractional of [false, true]) {
+        const plan = fractional ? bestFractionalBy(hw, req, 'cycles', ceiling) : nearestJitterFreeBy(hw, req, 'cycles', ceiling);
+        const oracle = exhaustivePlan(hw, req, fractional, false, ceiling);
+        if (planKey(plan) !== planKey(oracle)) mismatches.push(`${label} ${fractional ? 'fractional' : 'jitter-free'} ≤ ${ceiling.num}/${ceiling.den}: ${planKey(plan)} vs oracle ${planKey(oracle)}`);
+        if (oracle !== null) withPlan++;
+      }
+    }
+    expect(mismatches.slice(0, 10)).toEqual([]);
+    expect(withPlan).toBeGreaterThan(300);
+  });
+
+  it('auto, cycles and walk agree with a ceiling on 60 seeded medium domains', () => {
+    const rnd = seededRandom(0x3ed1_ce11);
+    const mismatches: string[] = [];
+    for (let i = 0; i < 60; i++) {
+      const { hw, req, label } = lowTargetCase(rnd, i, 3000);
+      const ceiling = rat(8 + Math.floor(rnd() * 400));
+      for (const fractional of [false, true]) {
+        const run = (s: Strategy): Plan | null => (fractional ? bestFractionalBy(hw, req, s, ceiling) : nearestJitterFreeBy(hw, req, s, ceiling));
+        const walk = run('walk');
+        for (const s of ['cycles', 'auto'] as const) {
+          const got = run(s);
+          if (planKey(got) !== planKey(walk)) mismatches.push(`${label} ${fractional ? 'fractional' : 'jitter-free'} ${s}: ${planKey(got)} vs walk ${planKey(walk)}`);
+        }
+      }
+    }
+    expect(mismatches.slice(0, 10)).toEqual([]);
+  });
+});
+
 describe('the three strategies agree where the oracle is too slow (walk = the separate exact method of scan.ts)', () => {
   it('auto, cycles and walk give the identical plan on 150 seeded medium domains (up to ~3000 dividers × 3000 lengths)', () => {
     const rnd = seededRandom(0x3ed1a);

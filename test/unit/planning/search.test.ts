@@ -81,6 +81,33 @@ describe('planner = exhaustive search (oracle: test/support/exhaustive.ts, plain
   });
 });
 
+describe('planner with an S ceiling = exhaustive search restricted to S ≤ S max (oracle: test/support/exhaustive.ts)', () => {
+  it('identical plans on 800 seeded random small domains with a ceiling, jitter-free and fractional', () => {
+    const rnd = seededRandom(0xce11_1e55);
+    const mismatches: string[] = [];
+    let withPlan = 0;
+    let differs = 0;
+    for (let i = 0; i < 800; i++) {
+      const { hw, req, label } = randomCase(rnd, i);
+      // Ceilings at the floor, a little above it, well above it, and whole numbers of samples.
+      const f = req.minSamplesPerCycle;
+      const ceiling = [f, mul(f, rat(3, 2)), mul(f, rat(3)), mul(f, rat(10)), rat(Math.ceil(Number(f.num) / Number(f.den)) + Math.floor(rnd() * 40))][Math.floor(rnd() * 5)]!;
+      const whole = nearestJitterFree(hw, req, ceiling);
+      const wholeOracle = exhaustivePlan(hw, req, false, false, ceiling);
+      if (planKey(whole) !== planKey(wholeOracle)) mismatches.push(`${label} jitter-free ≤ ${ceiling.num}/${ceiling.den}: ${planKey(whole)} vs oracle ${planKey(wholeOracle)}`);
+      const frac = bestFractional(hw, req, ceiling);
+      const fracOracle = exhaustivePlan(hw, req, true, false, ceiling);
+      if (planKey(frac) !== planKey(fracOracle)) mismatches.push(`${label} fractional ≤ ${ceiling.num}/${ceiling.den}: ${planKey(frac)} vs oracle ${planKey(fracOracle)}`);
+      if (wholeOracle !== null) withPlan++;
+      if (planKey(wholeOracle) !== planKey(exhaustivePlan(hw, req, false))) differs++;
+    }
+    console.log(`planner with S ceiling vs exhaustive: 800 domains × 2 searches, ${withPlan} with a plan, ${differs} where the ceiling changes the plan, ${mismatches.length} mismatches`);
+    expect(mismatches.slice(0, 10)).toEqual([]);
+    expect(withPlan).toBeGreaterThan(400);
+    expect(differs).toBeGreaterThan(150);
+  });
+});
+
 // A board with one fixed divider and one fixed table length, for the worked examples.
 function fixed(systemClockHz: Rational, n: number, divider: [number, number], fractionBits = 0): Hardware {
   return {

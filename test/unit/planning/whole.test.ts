@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { type Rational, div, mul, rat } from '../../../shared-schema/src/rational';
 import type { Hardware } from '../../../server/src/planning/types';
-import { nearestWholeCycle } from '../../../server/src/planning/whole';
+import { nearestWholeCycle, wholeCyclePlans } from '../../../server/src/planning/whole';
 import { exhaustivePlan, planKey } from '../../support/exhaustive';
 import { seededRandom } from '../../support/seeded';
 
@@ -56,6 +56,36 @@ describe('whole samples per cycle = exhaustive search restricted to N mod M = 0 
     console.log(`whole-cycle planner vs exhaustive: 600 domains × 2 searches, ${withPlan} with a plan, ${mismatches.length} mismatches`);
     expect(mismatches.slice(0, 5)).toEqual([]);
     expect(withPlan).toBeGreaterThan(300);
+  });
+
+  it('the outward search over products K = J·S finds the walk\'s plan on 200 seeded medium domains (walk = the separate method)', () => {
+    const rnd = seededRandom(0x0a7d_3a11);
+    const int = (lo: number, hi: number): number => lo + Math.floor(rnd() * (hi - lo + 1));
+    const mismatches: string[] = [];
+    for (let i = 0; i < 200; i++) {
+      const systemClockHz = rat(int(1_000_000, 200_000_000), int(1, 3));
+      const fractionBits = int(0, 4);
+      const integerMax = int(50, 5000);
+      const hw: Hardware = {
+        systemClockHz,
+        divider: { integerMin: int(1, 3), integerMax, fractionBits },
+        dac: { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: systemClockHz },
+        memory: { budgetBytes: 2 ** 20, tableLengthMin: int(1, 64), tableLengthMax: int(3000, 40_000), powerOfTwo: rnd() < 0.1 },
+      };
+      // Low targets, where the walk over S is long and the products decide.
+      const targetHz = div(mul(systemClockHz, rat(int(1, 1000))), rat(int(10_000, 50_000_000)));
+      const req = { targetHz, minSamplesPerCycle: rat(int(4, 32)) };
+      const cap = rat(int(20, 6000));
+      const pref = { toleranceHz: mul(targetHz, rat(int(0, 100), 1_000_000)), maxSamplesPerCycle: cap, duty: rnd() < 0.5 ? { asked: rat(int(1, 9), 10), tolerance: rat(int(0, 2), 100) } : null };
+      for (const fractional of [false, true]) {
+        const auto = wholeCyclePlans(hw, req, fractional, pref, 'auto');
+        const walk = wholeCyclePlans(hw, req, fractional, pref, 'walk');
+        if (planKey(auto.nearest) !== planKey(walk.nearest) || planKey(auto.ranked) !== planKey(walk.ranked)) {
+          mismatches.push(`#${i} ${fractional ? 'fractional' : 'jitter-free'}: ${planKey(auto.nearest)} / ${planKey(auto.ranked)} vs walk ${planKey(walk.nearest)} / ${planKey(walk.ranked)}`);
+        }
+      }
+    }
+    expect(mismatches.slice(0, 5)).toEqual([]);
   });
 
   it('a 1 kHz square from 125 MHz: f_sys/(D·S) = 1 kHz exactly with D·S = 125 000 (derived)', () => {

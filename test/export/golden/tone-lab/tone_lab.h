@@ -59,21 +59,21 @@ extern const uint16_t tone_lab_pilot_table[TONE_LAB_PILOT_TABLE_LENGTH];
  * gate (tone_lab_gate): square 25 % duty, 2 Vpp around 1.25 V
  * target   46.875 kHz +/- 46.875 mHz
  * achieved 46.875 kHz (error 0 Hz, 0 ppm; verdict exact)
- * f_s = 96 MHz / 8 = 12 MHz; 256 samples hold 1 cycle(s), open span
+ * f_s = 96 MHz / 64 = 1.5 MHz; 32 samples hold 1 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
- * DMA ring: aligned to 512 bytes
+ * DMA ring: aligned to 64 bytes
  */
-#define TONE_LAB_GATE_DIVIDER_INT       8u         /* I, integer part of the sample-clock divider */
-#define TONE_LAB_GATE_DIVIDER_FRAC      0u         /* F, fraction numerator over 2^6 */
-#define TONE_LAB_GATE_DIVIDER_FRAC_BITS 6u         /* k */
-#define TONE_LAB_GATE_DIVIDER_RAW       512u       /* I * 2^k + F, the divider as one fixed-point value */
-#define TONE_LAB_GATE_TABLE_LENGTH      256u       /* N, samples in the table */
-#define TONE_LAB_GATE_TABLE_BYTES       512u
-#define TONE_LAB_GATE_CYCLES            1u         /* M, cycles the table holds */
-#define TONE_LAB_GATE_SAMPLE_RATE_HZ    12000000.0 /* exactly 12000000 */
-#define TONE_LAB_GATE_FREQUENCY_HZ      46875.0    /* exactly 46875 */
-#define TONE_LAB_GATE_TABLE_ALIGN       512u       /* bytes; the DMA ring wraps on it */
+#define TONE_LAB_GATE_DIVIDER_INT       64u       /* I, integer part of the sample-clock divider */
+#define TONE_LAB_GATE_DIVIDER_FRAC      0u        /* F, fraction numerator over 2^6 */
+#define TONE_LAB_GATE_DIVIDER_FRAC_BITS 6u        /* k */
+#define TONE_LAB_GATE_DIVIDER_RAW       4096u     /* I * 2^k + F, the divider as one fixed-point value */
+#define TONE_LAB_GATE_TABLE_LENGTH      32u       /* N, samples in the table */
+#define TONE_LAB_GATE_TABLE_BYTES       64u
+#define TONE_LAB_GATE_CYCLES            1u        /* M, cycles the table holds */
+#define TONE_LAB_GATE_SAMPLE_RATE_HZ    1500000.0 /* exactly 1500000 */
+#define TONE_LAB_GATE_FREQUENCY_HZ      46875.0   /* exactly 46875 */
+#define TONE_LAB_GATE_TABLE_ALIGN       64u       /* bytes; the DMA ring wraps on it */
 extern const uint16_t tone_lab_gate_table[TONE_LAB_GATE_TABLE_LENGTH];
 
 /*

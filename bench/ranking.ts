@@ -1,0 +1,66 @@
+// The whole per-output planning step (planOutputUncached: the nearest plan, the ranking's plan
+// under S max, the figures) on the full domain, beside the nearest-plan search alone (what an
+// output cost before the ranking), for sines (S max from a 12-bit swing) and whole-S squares.
+// Run: npx tsx bench/ranking.ts   (least of REPEAT timings per target, both timed alternately)
+
+import { rat, parseDecimal } from '../shared-schema/src/rational';
+import { planOutputUncached } from '../server/src/planning/choose';
+import { nearestJitterFree } from '../server/src/planning/search';
+import { nearestWholeCycle } from '../server/src/planning/whole';
+import type { Hardware, OutputRequest } from '../server/src/planning/types';
+import { seededRandom } from '../test/support/seeded';
+
+const hw: Hardware = {
+  systemClockHz: rat(125_000_000),
+  divider: { integerMin: 1, integerMax: 65535, fractionBits: 8 },
+  dac: { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: rat(125_000_000) },
+  memory: { budgetBytes: 64 * 1024, tableLengthMin: 16, tableLengthMax: 32768, powerOfTwo: false },
+};
+const TARGETS = Number(process.env.TARGETS ?? 200);
+const REPEAT = Math.max(1, Number(process.env.REPEAT ?? 3));
+const rnd = seededRandom(0xbe7c4);
+
+function requests(shape: 'sine' | 'square'): OutputRequest[] {
+  const out: OutputRequest[] = [];
+  for (let i = 0; i < TARGETS; i++) {
+    const targetHz = parseDecimal((10 ** (rnd() * Math.log10(2e6))).toPrecision(6))!;
+    out.push({
+      targetHz,
+      minSamplesPerCycle: rat(shape === 'sine' ? 8 : 16),
+      wholeSamplesPerCycle: shape === 'square',
+      waveform: { shape, duty: 0.5, amplitudeVpp: 3.3 * 4095 / 4096, offsetV: 1.65 },
+      toleranceHz: rat(targetHz.num * 50n, targetHz.den * 1_000_000n),
+      jitter: 'forbid',
+      maxSamplesPerCycle: rat(shape === 'sine' ? 12865 : 50),
+      ...(shape === 'square' ? { duty: { asked: rat(1, 2), tolerance: rat(1, 100) } } : {}),
+    });
+  }
+  return out;
+}
+
+const quantile = (xs: number[], q: number): number => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(q * xs.length))]!;
+
+function time(reqs: OutputRequest[], run: (r: OutputRequest) => unknown): number[] {
+  return reqs.map((r) => {
+    let least = Infinity;
+    for (let k = 0; k < REPEAT; k++) {
+      const t0 = performance.now();
+      run(r);
+      least = Math.min(least, performance.now() - t0);
+    }
+    return least;
+  });
+}
+
+for (const shape of ['sine', 'square'] as const) {
+  const reqs = requests(shape);
+  const nearest = (r: OutputRequest): unknown => (shape === 'square' ? nearestWholeCycle(hw, r, false) : nearestJitterFree(hw, r));
+  time(reqs, (r) => planOutputUncached(hw, r)); // warm-up
+  const before = time(reqs, nearest);
+  const after = time(reqs, (r) => planOutputUncached(hw, r));
+  const line = (label: string, ms: number[]): string =>
+    `${label.padEnd(44)} median ${quantile(ms, 0.5).toFixed(3)} ms  p95 ${quantile(ms, 0.95).toFixed(3)} ms  max ${Math.max(...ms).toFixed(2)} ms  ≤ 2 ms: ${ms.filter((x) => x <= 2).length}/${ms.length}`;
+  console.log(`${shape}, ${TARGETS} targets 1 Hz…2 MHz, 125 MHz, I 1…65535 (8 fraction bits), N 16…32768, ±50 ppm:`);
+  console.log(line('  nearest plan alone (the search before)', before));
+  console.log(line('  planOutput: ranking + figures (now)', after));
+}
