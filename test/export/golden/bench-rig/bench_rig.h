@@ -90,18 +90,18 @@ extern const uint16_t bench_rig_ultrasonic_carrier_table[BENCH_RIG_ULTRASONIC_CA
  * sample-clock (bench_rig_sample_clock): square 50 % duty, 3.29919 Vpp around 1.6496 V
  * target   256 kHz +/- 5.12 Hz
  * achieved 256 kHz (error 0 Hz, 0 ppm; verdict exact)
- * f_s = 184.32 MHz / 10 = 18.432 MHz; 72 samples hold 1 cycle(s), open span
+ * f_s = 184.32 MHz / 15 = 12.288 MHz; 48 samples hold 1 cycle(s), open span
  * divider jitter: none (integer divider)
  * seam: ok
  */
-#define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_INT       10u        /* I, integer part of the sample-clock divider */
+#define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_INT       15u        /* I, integer part of the sample-clock divider */
 #define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_FRAC      0u         /* F, fraction numerator over 2^5 */
 #define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_FRAC_BITS 5u         /* k */
-#define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_RAW       320u       /* I * 2^k + F, the divider as one fixed-point value */
-#define BENCH_RIG_SAMPLE_CLOCK_TABLE_LENGTH      72u        /* N, samples in the table */
-#define BENCH_RIG_SAMPLE_CLOCK_TABLE_BYTES       144u
+#define BENCH_RIG_SAMPLE_CLOCK_DIVIDER_RAW       480u       /* I * 2^k + F, the divider as one fixed-point value */
+#define BENCH_RIG_SAMPLE_CLOCK_TABLE_LENGTH      48u        /* N, samples in the table */
+#define BENCH_RIG_SAMPLE_CLOCK_TABLE_BYTES       96u
 #define BENCH_RIG_SAMPLE_CLOCK_CYCLES            1u         /* M, cycles the table holds */
-#define BENCH_RIG_SAMPLE_CLOCK_SAMPLE_RATE_HZ    18432000.0 /* exactly 18432000 */
+#define BENCH_RIG_SAMPLE_CLOCK_SAMPLE_RATE_HZ    12288000.0 /* exactly 12288000 */
 #define BENCH_RIG_SAMPLE_CLOCK_FREQUENCY_HZ      256000.0   /* exactly 256000 */
 extern const uint16_t bench_rig_sample_clock_table[BENCH_RIG_SAMPLE_CLOCK_TABLE_LENGTH];
 
