@@ -78,6 +78,7 @@ export const nodeFileSystem: FileSystem = {
       if (facts.kind !== 'file') return { facts, head: new Uint8Array(), tail: new Uint8Array() };
       return { facts, head: readAt(fd, Math.min(head, facts.size), 0), tail: readAt(fd, Math.min(tail, facts.size), Math.max(0, facts.size - tail)) };
     }),
+  readdir: (p) => fs.readdirSync(p),
   mkdirp: (p) => void fs.mkdirSync(p, { recursive: true }),
   replace: (file, text) => {
     const temp = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${++replaceCounter}.tmp`);

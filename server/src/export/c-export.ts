@@ -6,7 +6,7 @@ import { toNumber } from '../../../shared-schema/src/rational';
 import { exactText } from '../cli/format-json';
 import { formatHz, formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { formatCycles, formatPpm, formatSignedHz } from '../cli/units';
-import { arrayBody, block, cDouble, cUnsigned, defines } from './c-text';
+import { arrayBody, block, cDouble, cUnsigned, defines, lineComment } from './c-text';
 import type { OutputIdentifiers } from './identifiers';
 import { specPrefix } from './identifiers';
 import type { LoadedSpec } from './load';
@@ -148,7 +148,7 @@ export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, Ou
     const id = ids.get(o.analysis.name)!;
     const align = aligned ? `WAVEPLAN_ALIGN(${id.upper}_TABLE_ALIGN) ` : '';
     c.push(
-      `/* ${o.analysis.name}: ${o.plan.tableLength} samples, ${formatCycles(o.plan.cycles)} cycle(s) */`,
+      lineComment(`${o.analysis.name}: ${o.plan.tableLength} samples, ${formatCycles(o.plan.cycles)} cycle(s)`),
       `${align}const ${type} ${id.lower}_table[${id.upper}_TABLE_LENGTH] = {`,
       arrayBody(o.codes, perLine),
       '};',

@@ -17,15 +17,29 @@ export function cUnsigned(x: number | bigint): string {
 const ASCII: Record<string, string> = { 'µ': 'u', '÷': '/', '≈': '~', '±': '+/-', '·': '*', '—': '-', '–': '-', '×': 'x', '→': '->', '≤': '<=', '≥': '>=' };
 
 /**
- * Text safe inside a C block comment: no comment delimiters, and ASCII only — some embedded
- * toolchains still reject UTF-8 in sources; anything unmapped becomes '?'.
+ * Text safe inside a C block comment, in this order, so no later step can undo an earlier one:
+ * 1. ASCII only — some embedded toolchains still reject UTF-8 in sources: the few signs our
+ *    messages use become their ASCII spelling (÷ → /, · → *), anything else, and every control
+ *    character (newline, carriage return, tab, NUL), becomes '?';
+ * 2. no backslash, which could splice lines, and no `??` pair, which ISO C (-std=c99) reads as
+ *    the start of a trigraph (`??/` is a backslash; -Wall warns on every one);
+ * 3. no comment delimiter: slash-star and star-slash are split by a space, until none is left.
+ * Spec text (output names, file names, messages quoting keys) reaches generated code only this way.
  */
 export function commentSafe(text: string): string {
-  return text
-    .replace(/\*\//g, '* /')
-    .replace(/\/\*/g, '/ *')
-    .replace(/[^\x20-\x7e]/g, (c) => ASCII[c] ?? '?');
+  let out = text
+    .replace(/[^\x20-\x7e]/gu, (c) => ASCII[c] ?? '?')
+    .replace(/\\/g, '/')
+    .replace(/\?(?=\?)/g, '? ');
+  for (let before = ''; before !== out; ) {
+    before = out;
+    out = out.replace(/\*\//g, '* /').replace(/\/\*/g, '/ *');
+  }
+  return out;
 }
+
+/** A one-line C comment around `text`. */
+export const lineComment = (text: string): string => `/* ${commentSafe(text)} */`;
 
 export function block(lines: readonly string[]): string {
   return ['/*', ...lines.map((l) => (l === '' ? ' *' : ` * ${commentSafe(l)}`)), ' */'].join('\n');
@@ -36,7 +50,7 @@ export function defines(rows: ReadonlyArray<[string, string, string?]>): string 
   const width = Math.max(...rows.map(([n]) => n.length));
   const valueWidth = Math.max(...rows.map(([, v]) => v.length));
   return rows
-    .map(([n, v, c]) => (c ? `#define ${n.padEnd(width)} ${v.padEnd(valueWidth)} /* ${commentSafe(c)} */` : `#define ${n.padEnd(width)} ${v}`))
+    .map(([n, v, c]) => (c ? `#define ${n.padEnd(width)} ${v.padEnd(valueWidth)} ${lineComment(c)}` : `#define ${n.padEnd(width)} ${v}`))
     .join('\n');
 }
 

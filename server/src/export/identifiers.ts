@@ -22,6 +22,17 @@ export const EXPORT_CODES = {
 
 const SNAKE = /^[a-z][a-z0-9]*(?:_[a-z0-9]+)*$/;
 
+/**
+ * The headers of the C standard library (ISO/IEC 9899:2024 §7.1.2, C89 to C23 — from memory for
+ * the clause), which C++ also provides under these names. A generated `<prefix>.h` of one of these
+ * names, in a folder given to the compiler with -I, would be found instead of the library's own
+ * (angle-bracket includes search -I folders first) — our own `#include <stdint.h>` included.
+ */
+export const STANDARD_HEADERS: ReadonlySet<string> = new Set(
+  ('assert complex ctype errno fenv float inttypes iso646 limits locale math setjmp signal stdalign stdarg stdatomic stdbit ' +
+    'stdbool stdckdint stddef stdint stdio stdlib stdnoreturn string tgmath threads time uchar wchar wctype').split(' '),
+);
+
 export function snake(name: string): string {
   return name.replace(/-/g, '_').toLowerCase();
 }
@@ -59,6 +70,15 @@ export function outputIdentifiers(
       severity: 'error',
       code: 'c-identifier',
       message: `The file name gives the C prefix "${prefix}", which is not a C identifier: rename the file to start with a letter and use only letters, digits and single - or _.`,
+    });
+    return { ids, diagnostics };
+  }
+  if (STANDARD_HEADERS.has(prefix)) {
+    diagnostics.push({
+      range: fileStart,
+      severity: 'error',
+      code: 'c-identifier',
+      message: `The file name gives the header ${prefix}.h, which would shadow the C library's <${prefix}.h> wherever the generated folder is on the include path: rename the file, e.g. to ${prefix}-waves.wave.yaml.`,
     });
     return { ids, diagnostics };
   }

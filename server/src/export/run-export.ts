@@ -3,7 +3,7 @@
 // Exit 0 written, 1 the specs have errors (also after a forced export), 2 misuse or I/O failure.
 
 import * as path from 'node:path';
-import { CliInputError, writeOutputs } from '../cli/disk';
+import { CliInputError, nodeFileSystem, writeOutputs } from '../cli/disk';
 import type { WriteTarget } from '../spec/containment';
 import type { SpecDiagnostic } from '../spec/types';
 import { EXPORT_USAGE, parseExportArgs } from './args';
@@ -12,6 +12,7 @@ import { outputIdentifiers, specPrefix } from './identifiers';
 import { exportJson, type ExportedSpec } from './json-export';
 import { diagnosticLine, loadSpecs, type LoadedSpec } from './load';
 import { exportModel } from './model';
+import { folderClashes, type GeneratedHeader } from './symbols';
 import { relativeTo } from '../cli/check';
 import { guarded, processIo, type CommandIo } from './io';
 
@@ -81,13 +82,19 @@ export async function runExport(argv: string[], io: CommandIo = processIo()): Pr
     if (options.cDir !== null) {
       const dir = path.resolve(io.cwd, options.cDir);
       const seen = new Map<string, string>();
+      const headers: GeneratedHeader[] = [];
       for (const p of prepared) {
         const prefix = specPrefix(p.spec.file);
         const other = seen.get(prefix);
         if (other) throw new CliInputError(`${other} and ${p.spec.path} would both write ${prefix}.h; rename one of them`);
         seen.set(prefix, p.spec.path);
-        for (const f of cFiles(p.spec, p.model, p.ids!, p.forced)) writes.push({ file: path.join(dir, f.name), folder: dir, text: f.text });
+        for (const f of cFiles(p.spec, p.model, p.ids!, p.forced)) {
+          writes.push({ file: path.join(dir, f.name), folder: dir, text: f.text });
+          if (f.name.endsWith('.h')) headers.push({ name: f.name, spec: p.spec.path, text: f.text });
+        }
       }
+      const clashes = folderClashes(nodeFileSystem, dir, headers);
+      if (clashes.length > 0) throw new CliInputError(`nothing exported: ${clashes.join('; ')}`);
     }
     if (options.json !== null) {
       const file = path.resolve(io.cwd, options.json);

@@ -9,6 +9,7 @@ import { cFiles } from '../export/c-export';
 import { reportHtml } from '../export/html-report';
 import { describeSpec, diagnosticLine, type LoadedSpec } from '../export/load';
 import { exportModel } from '../export/model';
+import { folderClashes } from '../export/symbols';
 import { exportProblems } from '../export/run-export';
 import { analyze } from '../spec/analyze';
 import type { FileFacts } from '../spec/containment';
@@ -111,6 +112,9 @@ export function exportC(argument: unknown, directory: string, files: EditorFiles
   const target = path.resolve(path.dirname(file), directory);
   const workspace = folders.find((f) => f === baseFolder(file, folders)) ?? path.dirname(file);
   const writes = cFiles(spec, model, ids!, false).map((f) => ({ file: path.join(target, f.name), folder: target, text: f.text }));
+  const headers = writes.filter((w) => w.file.endsWith('.h')).map((w) => ({ name: path.basename(w.file), spec: spec.path, text: w.text }));
+  const clashes = folderClashes(nodeFileSystem, target, headers);
+  if (clashes.length > 0) return { error: `nothing exported: ${clashes.join('; ')}` };
   try {
     writeOutputs(writes, {
       inputs: inputFacts([file, spec.analysis.clockPath]),

@@ -31,6 +31,8 @@ export interface FileSystem {
   readRegular(path: string, maxBytes: number): { facts: FileFacts; bytes?: Uint8Array };
   /** The first `head` and last `tail` bytes of a regular file, opened as readRegular opens it. */
   readEnds(path: string, head: number, tail: number): { facts: FileFacts; head: Uint8Array; tail: Uint8Array };
+  /** Names in a folder. */
+  readdir(path: string): string[];
   /** Creates the folder and its missing parents. */
   mkdirp(path: string): void;
   /** Writes a new file beside `path` and renames it onto `path`: an existing name is replaced, never written through. */

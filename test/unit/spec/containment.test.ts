@@ -49,6 +49,7 @@ function fakeFs(files: Record<string, Omit<FakeFile, 'ino'>>, onOpen?: (p: strin
       const b = Buffer.from(f.text ?? '');
       return { facts: facts(f), head: b.subarray(0, head), tail: b.subarray(Math.max(0, b.length - tail)) };
     },
+    readdir: () => [],
     mkdirp: () => undefined,
     replace: (p, text) => {
       written.push(p);
