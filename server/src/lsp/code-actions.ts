@@ -5,6 +5,7 @@
 
 import type { CancellationToken, CodeAction, Diagnostic, TextEdit } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
+import type { Document } from 'yaml';
 import { abs, cmp, div, isExactDecimal, isInteger, mul, rat, sub, toDecimal, toNumber, type Rational } from '../../../shared-schema/src/rational';
 import { planOutput } from '../planning/choose';
 import type { Hardware, PlanFigures } from '../planning/types';
@@ -14,6 +15,7 @@ import { SOURCE, type DiagnosticData } from './diagnostics';
 import { setKey } from './entry-edits';
 import { leavesInPlace, previewFix, quickFix, resultClause, type Recheck } from './fix-preview';
 import { jitterFreeNeighbours } from './retarget';
+import { SCHEMA_FIX_CODES, schemaFixes } from './schema-fixes';
 import { checkCancelled } from './safe';
 
 const PREFIXES: ReadonlyArray<[string, bigint]> = [
@@ -172,15 +174,27 @@ function outputOf(analysis: Analysis, d: Diagnostic): OutputAnalysis | undefined
   return analysis.outputs.find((o) => o.entryRange.start.line <= line && line <= o.entryRange.end.line);
 }
 
-export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: Diagnostic[], token: CancellationToken, recheck: Recheck): CodeAction[] {
+export interface FixContext {
+  /** Analyses the document's text with a fix applied (the preview). */
+  recheck: Recheck;
+  /** The document's syntax tree (parsed once per version). */
+  tree: () => Document;
+}
+
+export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: Diagnostic[], token: CancellationToken, context: FixContext): CodeAction[] {
+  const { recheck } = context;
   const hw = analysis.hardware;
-  if (!hw || analysis.kind !== 'wave') return [];
   const actions: CodeAction[] = [];
   for (const d of diagnostics) {
     if (d.source !== SOURCE) continue;
+    checkCancelled(token);
+    if (SCHEMA_FIX_CODES.has(String(d.code))) {
+      actions.push(...schemaFixes(doc, context.tree(), analysis, d, recheck));
+      continue;
+    }
+    if (!hw || analysis.kind !== 'wave') continue;
     const output = outputOf(analysis, d);
     if (!output) continue;
-    checkCancelled(token);
     const c: Context = { doc, analysis, output, hw, d, token };
     for (const candidate of candidatesFor(c)) {
       const action = offer(c, candidate, recheck);

@@ -189,7 +189,7 @@ export function startServer(): void {
       const doc = docs.get(params.textDocument.uri);
       const analysis = doc && docs.analysisOf(doc.uri);
       if (!doc || !analysis) return [];
-      return codeActions(doc, analysis, params.context.diagnostics, token, (text) => docs.analyzeEdited(doc.uri, text));
+      return codeActions(doc, analysis, params.context.diagnostics, token, { recheck: (text) => docs.analyzeEdited(doc.uri, text), tree: () => trees.of(doc) });
     }),
   );
 

@@ -3,8 +3,10 @@
 
 import type { Document } from 'yaml';
 import type { z } from 'zod';
-import { didYouMean } from '../../../shared-schema/src/did-you-mean';
+import { closest, didYouMean } from '../../../shared-schema/src/did-you-mean';
+import { quantityExample } from '../../../shared-schema/src/quantity';
 import { type FileKind, type KeyInfo, childKeys, lookupKey, schemaOf } from '../../../shared-schema/src/keys';
+import { outputSchema } from '../../../shared-schema/src/wave-schema';
 import { diagnostic, type LineIndex } from './source';
 import { type Path, keyRange, locate, rangeFor, valueRange } from './nodes';
 import type { SpecDiagnostic } from './types';
@@ -13,22 +15,66 @@ import type { SpecDiagnostic } from './types';
 export const outputOf = (kind: FileKind, path: Path): string | undefined =>
   kind === 'wave' && path[0] === 'outputs' && path.length >= 2 ? String(path[1]) : undefined;
 
+/**
+ * A value to show in messages and to seed placeholders, by the key's schema path (`*` for an
+ * output name). Invented figures of no particular part.
+ */
 const EXAMPLES: Record<string, string> = {
   clock: './bench.clock.yaml',
-  shape: 'sine',
-  frequency: '1 kHz',
-  'system-clock': '125 MHz',
-  integer: '{ min: 1, max: 65535 }',
-  min: '1',
-  max: '65535',
-  bits: '12',
-  'sample-bytes': '2',
-  'full-scale': '3.3 V',
-  'max-sample-rate': '10 MHz',
-  budget: '64 KiB',
-  'table-length': '{ min: 16, max: 16384 }',
-  cycles: '1',
+  'outputs.*.frequency': '1 kHz',
+  'system-clock': '96 MHz',
+  'divider.integer.min': '1',
+  'divider.integer.max': '4096',
+  'dac.bits': '12',
+  'dac.sample-bytes': '2',
+  'dac.full-scale': '3.3 V',
+  'dac.max-sample-rate': '10 MHz',
+  'memory.budget': '64 KiB',
+  'memory.table-length.min': '16',
+  'memory.table-length.max': '16384',
+  'outputs.*.plan.divider': '100',
+  'outputs.*.plan.table-length': '1000',
+  'outputs.*.plan.cycles': '1',
 };
+
+const schemaPath = (kind: FileKind, path: Path): string =>
+  (kind === 'wave' && path[0] === 'outputs' && path.length >= 2 ? ['outputs', '*', ...path.slice(2)] : path).map(String).join('.');
+
+const requiredChildren = (kind: FileKind, path: Path, info: KeyInfo): string[] => info.children.filter((c) => lookupKey(kind, [...path, c])?.required);
+
+/** An example value for the key at `path`; objects are given as flow mappings of their required keys. */
+function example(kind: FileKind, path: Path): string | undefined {
+  const info = lookupKey(kind, path);
+  const own = EXAMPLES[schemaPath(kind, path)];
+  if (own || !info) return own;
+  if (info.type === 'choice') return info.values?.[0];
+  if (info.type === 'quantity' && info.quantity) return quantityExample(info.quantity.kind);
+  if (info.type !== 'object') return undefined;
+  const parts = requiredChildren(kind, path, info).map((c) => [c, example(kind, [...path, c])] as const);
+  return parts.length > 0 && parts.every(([, v]) => v !== undefined) ? `{ ${parts.map(([c, v]) => `${c}: ${v}`).join(', ')} }` : undefined;
+}
+
+/** Placeholders are written `<…>`; a value of that form is one the engineer has yet to choose. */
+export const isPlaceholder = (value: unknown): boolean => typeof value === 'string' && /^<[^>]*>$/.test(value.trim());
+
+/**
+ * The value a quick fix adds for a missing key: a placeholder that is itself a finding until it is
+ * replaced (never a default that would pass silently). Objects get their required keys, each a
+ * placeholder; the text has no `,` `:` `#` or brackets inside a placeholder, so it reads the same
+ * in a block or a flow mapping.
+ */
+export function placeholderFor(kind: FileKind, path: Path): string {
+  const info = lookupKey(kind, path);
+  if (!info) return '<value>';
+  if (info.type === 'choice' || info.type === 'true/false') return `<${(info.values ?? []).join('|')}>`;
+  if (info.type === 'object') {
+    const inner = requiredChildren(kind, path, info);
+    return `{ ${inner.map((c) => `${c}: ${placeholderFor(kind, [...path, c])}`).join(', ')} }`;
+  }
+  if (info.type === 'map') return `{ <output-name>: ${placeholderFor(kind, [...path, '*'])} }`;
+  const shown = example(kind, path) ?? (info.type === 'whole number' ? String(info.min ?? 1) : 'text');
+  return `<e.g. ${shown}>`;
+}
 
 function describeValue(value: unknown): string {
   if (value === null || value === undefined) return 'empty';
@@ -60,6 +106,23 @@ function wanted(info: KeyInfo | undefined): string {
 
 const keyLabel = (path: Path): string => (path.length === 0 ? 'The file' : `\`${path.map(String).join('.')}\``);
 
+const pathKey = (path: Path): string => path.map(String).join('\u0000');
+
+/** Absent required keys by the path of the mapping that lacks them (a misspelling often names one). */
+function missingByParent(doc: Document.Parsed, issues: readonly z.core.$ZodIssue[]): Map<string, Set<string>> {
+  const missing = new Map<string, Set<string>>();
+  for (const issue of issues) {
+    const path = cleanPath(issue.path);
+    if (issue.code === 'unrecognized_keys' || issue.code === 'invalid_key' || path.length === 0 || locate(doc, path)) continue;
+    const parent = pathKey(path.slice(0, -1));
+    if (!missing.has(parent)) missing.set(parent, new Set());
+    missing.get(parent)!.add(String(path[path.length - 1]));
+  }
+  return missing;
+}
+
+const cleanPath = (path: readonly PropertyKey[]): Path => path.filter((p): p is string | number => typeof p !== 'symbol');
+
 export function schemaDiagnostics(
   kind: FileKind,
   doc: Document.Parsed,
@@ -68,68 +131,95 @@ export function schemaDiagnostics(
   issues: readonly z.core.$ZodIssue[],
 ): SpecDiagnostic[] {
   const out: SpecDiagnostic[] = [];
+  const missing = missingByParent(doc, issues);
+  // Missing keys that a misspelt key next to them stands for: the unknown-key finding says it once.
+  const meant = new Set<string>();
   for (const issue of issues) {
-    const path = issue.path.filter((p): p is string | number => typeof p !== 'symbol');
+    if (issue.code !== 'unrecognized_keys') continue;
+    const path = cleanPath(issue.path);
+    const lacking = missing.get(pathKey(path));
+    for (const key of issue.keys) for (const k of closest(key, childKeys(kind, path))) if (lacking?.has(k)) meant.add(pathKey([...path, k]));
+  }
+  for (const issue of issues) {
+    const path = cleanPath(issue.path);
     const output = outputOf(kind, path);
     const info = lookupKey(kind, path);
 
     if (issue.code === 'unrecognized_keys') {
       const known = childKeys(kind, path);
+      const present = new Set(Object.keys((valueAt(data, path) as Record<string, unknown> | null) ?? {}));
+      const lacking = missing.get(pathKey(path)) ?? new Set<string>();
       for (const key of issue.keys) {
         const r = keyRange(doc, lines, [...path, key]) ?? rangeFor(doc, lines, path, 'key');
-        const hint = didYouMean(key, known);
+        // A rename onto a key already written would only make a duplicate.
+        const suggestions = closest(key, known).filter((k) => !present.has(k));
+        const lacked = suggestions.filter((k) => lacking.has(k));
+        const hint = suggestions.length === 0 ? '' : ` (did you mean ${suggestions.map((c) => `\`${c}\``).join(' or ')}${lacked.length > 0 ? `, which ${path.length === 0 ? 'the file' : keyLabel(path)} lacks` : ''}?)`;
         const where = path.length === 0 ? 'at the top of the file' : `in ${keyLabel(path)}`;
-        out.push(diagnostic('unknown-key', r, `Unknown key \`${key}\` ${where}${hint}: fix its spelling or remove it.`, outputOf(kind, [...path, key])));
+        const d = diagnostic('unknown-key', r, `Unknown key \`${key}\` ${where}${hint}: fix its spelling or remove it.`, outputOf(kind, [...path, key]));
+        if (suggestions.length > 0) d.fix = { suggestions };
+        out.push(d);
       }
       continue;
     }
     if (issue.code === 'invalid_key') {
       const r = keyRange(doc, lines, path) ?? rangeFor(doc, lines, path, 'key');
       out.push(diagnostic('bad-name', r, `Output name \`${String(path[path.length - 1])}\` is not allowed: start with a letter or _, then use letters, digits, _ or - (at most 64).`, outputOf(kind, path)));
+      // The schema checks no value under a key it rejects; check it here, so one pass says everything.
+      if (kind === 'wave' && path.length === 2) {
+        const inner = outputSchema.safeParse(valueAt(data, path));
+        if (!inner.success) out.push(...schemaDiagnostics(kind, doc, lines, data, inner.error.issues.map((i) => ({ ...i, path: [...path, ...i.path] }))));
+      }
       continue;
     }
     const found = locate(doc, path);
     if (!found) {
+      if (meant.has(pathKey(path))) continue;
       // An absent key: mark its parent's key (or the top of the file) and say what to add.
       const parent = path.slice(0, -1);
       const key = String(path[path.length - 1]);
-      const example = info?.type === 'choice' ? info.values?.[0] : EXAMPLES[key];
-      const inner = info?.type === 'object' ? info.children.filter((c) => lookupKey(kind, [...path, c])?.required) : [];
-      const add = example
-        ? `add \`${key}: ${example}\``
+      const shown = example(kind, path);
+      const inner = info?.type === 'object' ? requiredChildren(kind, path, info) : [];
+      const add = shown
+        ? `add \`${key}: ${shown}\``
         : inner.length > 0
           ? `add \`${key}:\` with ${inner.map((c) => `\`${c}\``).join(', ')}`
           : `add \`${key}:\``;
-      out.push(diagnostic('missing-key', rangeFor(doc, lines, parent, 'key'), `${keyLabel(parent)} has no \`${key}\`: ${add}.`, output));
+      const d = diagnostic('missing-key', rangeFor(doc, lines, parent, 'key'), `${keyLabel(parent)} has no \`${key}\`: ${add}.`, output);
+      d.fix = { key, placeholder: placeholderFor(kind, path), parent };
+      out.push(d);
       continue;
     }
     if (info?.type === 'quantity') continue;
     const r = valueRange(doc, lines, path) ?? rangeFor(doc, lines, path);
     const value = valueAt(data, path);
-    if (issue.code === 'invalid_value' && info?.type === 'choice') {
+    if (isPlaceholder(value)) {
+      out.push(diagnostic(issue.code === 'invalid_value' ? 'bad-choice' : 'wrong-type', r, `${keyLabel(path)} still holds the placeholder \`${String(value).trim()}\`: write ${wanted(info)} in its place.`, output));
+    } else if (issue.code === 'invalid_value' && info?.type === 'choice') {
       const hint = typeof value === 'string' ? didYouMean(value, info.values ?? []) : '';
       out.push(diagnostic('bad-choice', r, `${keyLabel(path)} must be one of ${wanted(info)}${hint}.`, output));
     } else if (issue.code === 'too_small' || issue.code === 'too_big') {
       out.push(diagnostic('out-of-range', r, `${keyLabel(path)} must be ${wanted(info)}: ${String(value)} is ${issue.code === 'too_small' ? 'too small' : 'too large'}.`, output));
     } else {
-      const example = exampleFor(info, kind, path);
-      const write = info?.type === 'object' || info?.type === 'map' ? `write ${example}` : `write e.g. ${example}`;
+      const shown = exampleFor(info, kind, path);
+      const write = info?.type === 'object' || info?.type === 'map' ? `write ${shown}` : `write e.g. ${shown}`;
       out.push(diagnostic('wrong-type', r, `${keyLabel(path)} must be ${wanted(info)}, not ${describeValue(value)}: ${write}.`, output));
     }
   }
   return out;
 }
 
-function exampleFor(info: KeyInfo | undefined, kind?: FileKind, path?: Path): string {
+function exampleFor(info: KeyInfo | undefined, kind: FileKind, path: Path): string {
   if (!info) return 'a value from the file reference';
   if (info.type === 'map') return 'one output name per line under it, each with its own keys';
   if (info.type === 'object') {
-    const needed = kind && path ? info.children.filter((c) => lookupKey(kind, [...path, c])?.required) : [];
+    const needed = requiredChildren(kind, path, info);
     const shown = needed.length > 0 ? needed : info.children.slice(0, 3);
     return `its keys under it, such as ${shown.map((c) => `\`${c}\``).join(', ')}`;
   }
   if (info.type === 'choice' || info.type === 'true/false') return `\`${info.values?.[0]}\``;
-  return EXAMPLES[info.key] ? `\`${EXAMPLES[info.key]}\`` : info.type === 'text' ? '`some text`' : 'a value from the file reference';
+  const shown = example(kind, path);
+  return shown ? `\`${shown}\`` : info.type === 'text' ? '`some text`' : 'a value from the file reference';
 }
 
 function valueAt(data: unknown, path: Path): unknown {

@@ -24,6 +24,18 @@ export interface SpecDiagnostic {
   message: string;
   /** The output the diagnostic is about, when it is about one. */
   output?: string;
+  /** The inputs of a quick fix, set where the finding is made (a fix never reads the message). */
+  fix?: FixData;
+}
+
+export interface FixData {
+  /** unknown-key: the known keys it is close to; bad-unit: the units. */
+  suggestions?: string[];
+  /** missing-key: the key to add, and the placeholder value to add it with. */
+  key?: string;
+  placeholder?: string;
+  /** missing-key: the path of the mapping that lacks it. */
+  parent?: (string | number)[];
 }
 
 export type SpecKind = 'wave' | 'clock';
