@@ -1,5 +1,6 @@
 // The oracle of record for the planner: a plain exhaustive search over every divider I + F/2^k
-// and every allowed table length N, in exact rationals. For each (D, N) the best M is the floor
+// (with counter stages: every product of stage values) and every allowed table length N, in
+// exact rationals. For each (D, N) the best M is the floor
 // or the ceiling of the exact f_target·D·N/f_sys, clamped to the allowed cycles, because the
 // error grows linearly away from that value on both sides. It shares nothing with the planner
 // but the rational arithmetic, and it is slow on purpose: clarity over speed.
@@ -38,6 +39,26 @@ function allowedLengths(hw: Hardware): number[] {
   return out;
 }
 
+/**
+ * The integer parts the divider can take: its range, or with counter stages every product of one
+ * value from each stage, found by trying every combination (sorted, each once).
+ */
+export function dividerIntegers(hw: Hardware): number[] {
+  const stages = hw.divider.stages;
+  if (stages === undefined) {
+    const out: number[] = [];
+    for (let i = hw.divider.integerMin; i <= hw.divider.integerMax; i++) out.push(i);
+    return out;
+  }
+  let products = [1];
+  for (const stage of stages) {
+    const next: number[] = [];
+    for (const p of products) for (let v = stage.min; v <= stage.max; v++) next.push(p * v);
+    products = next;
+  }
+  return [...new Set(products)].sort((a, b) => a - b);
+}
+
 /** Negative when a ranks before b (see server/src/planning/rank.ts for the documented order). */
 function better(a: Entry, b: Entry, fractional: boolean): number {
   let c = cmp(a.absError, b.absError);
@@ -68,7 +89,7 @@ export function exhaustivePlan(
   const fractions = fractional ? 2 ** k : 1;
   const lengths = allowedLengths(hw);
   let best: Entry | null = null;
-  for (let I = hw.divider.integerMin; I <= hw.divider.integerMax; I++) {
+  for (const I of dividerIntegers(hw)) {
     for (let F = 0; F < fractions; F++) {
       const p = rat(F, 2 ** k);
       const divider = add(rat(I), p);

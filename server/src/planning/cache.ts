@@ -14,6 +14,7 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
   return [
     q(hw.systemClockHz), hw.systemClockTolerance ? q(hw.systemClockTolerance) : '0',
     dv.integerMin, dv.integerMax, dv.fractionBits,
+    dv.stages === undefined ? '-' : dv.stages.map((st) => `${st.name}:${st.min}:${st.max}:${st.registerOffset}`).join(','),
     dac.bits, dac.sampleBytes, dac.fullScaleV, q(dac.maxSampleRateHz),
     mem.budgetBytes, mem.tableLengthMin, mem.tableLengthMax, mem.powerOfTwo,
     q(req.targetHz), q(req.minSamplesPerCycle), q(req.toleranceHz), req.jitter, req.wholeSamplesPerCycle === true,

@@ -4,6 +4,7 @@
 // loop needs is precomputed here, both exact (bigint) and as doubles.
 
 import { type Rational, rat, mul, div, ceil, cmp, toNumber, sign } from '../../../shared-schema/src/rational';
+import { type StageProducts, stageProducts } from './stages';
 import type { Hardware, PlanRequest } from './types';
 
 export type Mode = 'jitter-free' | 'fractional';
@@ -19,9 +20,11 @@ export interface Domain {
   target: Rational;
   clockF: number;
   targetF: number;
-  /** Inclusive range of J after the sample-rate limit. */
+  /** Inclusive range of J after the sample-rate limit (both members of `dividers` when it is set). */
   jMin: number;
   jMax: number;
+  /** The dividers a two-stage divider can make, when not every J in the range is one (stages.ts). */
+  dividers: StageProducts | null;
   /** Allowed table lengths: the range [nMin, nMax], or only its powers of two. */
   nMin: number;
   nMax: number;
@@ -95,9 +98,15 @@ function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode, ceiling: Rationa
 
   // f_s = C/J ≤ max rate  ⇔  J ≥ C / max rate.
   const jRate = ceil(div(clock, hw.dac.maxSampleRateHz));
-  const jMin = Math.max(hw.divider.integerMin * scale, Number(jRate), 1);
-  const jMax = hw.divider.integerMax * scale + scale - 1;
+  let jMin = Math.max(hw.divider.integerMin * scale, Number(jRate), 1);
+  let jMax = hw.divider.integerMax * scale + scale - 1;
   if (!(jMin <= jMax)) return null;
+  const dividers = stageProducts(hw.divider.stages);
+  if (dividers !== null) {
+    jMin = dividers.next(jMin, jMax);
+    jMax = dividers.prev(jMin, jMax);
+    if (jMin === 0 || jMax === 0) return null;
+  }
 
   const sFloor = req.minSamplesPerCycle;
   const byBudget = hw.dac.sampleBytes > 0 ? Math.floor(hw.memory.budgetBytes / hw.dac.sampleBytes) : 0;
@@ -126,6 +135,7 @@ function makeDomain(hw: Hardware, req: PlanRequest, mode: Mode, ceiling: Rationa
     targetF: toNumber(target),
     jMin,
     jMax,
+    dividers,
     nMin,
     nMax,
     powerOfTwo: hw.memory.powerOfTwo,

@@ -7,6 +7,7 @@
 // S = N/M = b/(a·J), so the S floor is one upper bound on J (an S ceiling a lower one), and among them the order of rank.ts
 // reduces to: (fractional) the quietest F, then the smallest J, then the shortest N.
 // So each divisor n contributes its best multiple of b/n, and the Leader keeps the best of those.
+// With a stage divider (stages.ts) that is the least multiple of b/n the stages can make.
 
 import { div, gcdNumber } from '../../../shared-schema/src/rational';
 import { type Domain, maxCycles } from './domain';
@@ -38,12 +39,18 @@ export function offerPlansOfRatio(d: Domain, lead: Leader, a: number, b: number)
   let found = false;
   // J is a multiple of b/n ≤ jHi, so n ≥ b/jHi.
   divisorsInRange(b, Math.ceil(b / jHi), d.nMax, divisorsOfB);
+  // A stage divider: the least member that is a multiple of g; each found bounds the next search.
+  let stagesHi = jHi;
   for (const n of divisorsOfB) {
     if (lengthMultiple(d, n) === 0) continue;
     const g = b / n;
     const t0 = Math.ceil(jLo / g);
-    const j = g * (d.scale > 1 ? quietestMultiple(d.scale, g, t0, Math.floor(jHi / g)) : t0);
+    const j =
+      d.dividers !== null
+        ? d.dividers.nextMultiple(g, jLo, stagesHi)
+        : g * (d.scale > 1 ? quietestMultiple(d.scale, g, t0, Math.floor(jHi / g)) : t0);
     if (j === 0 || j > jHi) continue;
+    if (d.dividers !== null) stagesHi = j;
     // The shortest table for this J: a multiple of b/gcd(b, J), which divides n.
     const len = lengthMultiple(d, b / gcdNumber(b, j));
     const m = a * ((j * len) / b);

@@ -2,11 +2,13 @@
 
 import { type Rational, rat, sub, mul, div, cmp, sign, isInteger } from '../../../shared-schema/src/rational';
 import { dividerOf } from './jitter';
+import { splitDivider } from './stages';
 import type { Hardware, PinnedPlan, Plan } from './types';
 
 /** Stable names of what a pinned plan can get wrong (the spec layer maps them to diagnostics). */
 export type PinnedProblem =
   | 'divider-integer-out-of-range'
+  | 'divider-not-stage-product'
   | 'divider-fraction-out-of-range'
   | 'sample-rate-too-high'
   | 'table-length-out-of-range'
@@ -23,6 +25,8 @@ export function pinnedProblems(hw: Hardware, pinned: PinnedPlan): PinnedProblem[
   const N = pinned.tableLength;
   if (!Number.isInteger(I) || I < integerMin || I > integerMax) problems.push('divider-integer-out-of-range');
   if (!Number.isInteger(F) || F < 0 || F >= 2 ** fractionBits) problems.push('divider-fraction-out-of-range');
+  const stages = hw.divider.stages;
+  if (stages !== undefined && I >= integerMin && I <= integerMax && splitDivider(stages, I) === null) problems.push('divider-not-stage-product');
   const d = dividerOf({ dividerInteger: I, dividerFraction: F, fractionBits });
   if (sign(d) > 0 && cmp(div(hw.systemClockHz, d), hw.dac.maxSampleRateHz) > 0) problems.push('sample-rate-too-high');
   if (!Number.isInteger(N) || N < hw.memory.tableLengthMin || N > hw.memory.tableLengthMax) {

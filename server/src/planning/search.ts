@@ -15,6 +15,7 @@ import { type Candidate, Leader } from './rank';
 import { type Cap, ScanJ, ScanN, WorkBudget } from './scan';
 import { offerExactPlans } from './exact';
 import { searchByCycles } from './cycles';
+import { MemberWalk } from './stages';
 import type { Hardware, Plan, PlanRequest } from './types';
 
 /**
@@ -121,7 +122,12 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
   const byN = new ScanN(d, lead, budget);
   const C = d.clockF;
   const T = d.targetF;
-  const clampJ = (j: number): number => Math.min(d.jMax, Math.max(d.jMin, j));
+  const stages = d.dividers;
+  // A probe needs some divider the hardware makes near j: the nearest member above, else below.
+  const clampJ = (j: number): number => {
+    const c = Math.min(d.jMax, Math.max(d.jMin, j));
+    return stages === null ? c : stages.next(c, d.jMax) || stages.prev(d.jMin, c);
+  };
 
   // Two cheap probes give an error bound before the span is fixed: the dividers where the
   // longest table holds one cycle (or the S ceiling is met exactly) and where the S floor is.
@@ -139,7 +145,9 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
   const j0 = jLow(lead.errF);
   let j1 = jHigh(lead.errF);
   const lengths = d.powerOfTwo ? d.lengths.filter((n) => n >= nLow) : null;
-  const countN = lengths !== null ? lengths.length : d.nMax - nLow + 1;
+  // The walk over N asks the Farey kernel for any J up to J max: with stages only where every J
+  // of the span is one (stages.ts), else the walk goes over the dividers the stages make.
+  const countN = stages !== null && j1 > stages.completeTo ? Infinity : lengths !== null ? lengths.length : d.nMax - nLow + 1;
   const walk = Math.min(j1 - j0 + 1, countN);
   const limits =
     strategy === 'cycles'
@@ -152,7 +160,9 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
   if (j1 - j0 + 1 <= countN) {
     // Ascending J: once the leader is exact (and jitter-free in fractional mode) at a J already
     // passed, no later J can beat it — a larger J means a smaller S for the same f_out.
-    for (let j = j0; j <= j1; j++) {
+    const members = stages === null ? null : new MemberWalk(stages, j0, j1);
+    for (let j = members === null ? j0 : members.next(); j <= j1; j = members === null ? j + 1 : members.next()) {
+      if (j === 0) break;
       if (!budget.take()) return done(false);
       const before = lead.errF;
       byJ.run(j);

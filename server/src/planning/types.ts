@@ -3,6 +3,7 @@
 
 import type { Rational } from '../../../shared-schema/src/rational';
 import type { ClockTree } from './clock-source';
+import type { DividerStage, StageValue } from './stages';
 
 /** The hardware of a clock file, resolved to exact values. */
 export interface Hardware {
@@ -18,6 +19,11 @@ export interface Hardware {
     integerMax: number;
     /** k; 0 = integer-only divider. */
     fractionBits: number;
+    /**
+     * A divider built of counter stages (one or two): D is the product of one value from each,
+     * integerMin/integerMax are the products of their bounds and fractionBits is 0.
+     */
+    stages?: DividerStage[];
   };
   dac: {
     bits: number;

@@ -17,6 +17,8 @@ import { DIVISOR_REACH, divisorsInRange } from './divisors';
 import { realisesDutyAt } from './duty';
 import { type Preference, bestRanked, withinTolerance } from './ranking';
 import { WorkBudget } from './scan';
+import { StageNeighbours } from './stage-walk';
+import { type StageProducts, stageProducts } from './stages';
 import type { Hardware, Plan, PlanRequest } from './types';
 
 /**
@@ -48,6 +50,8 @@ interface Context {
   sLo: number;
   powerOfTwo: boolean;
   strategy: WholeStrategy;
+  /** The dividers a two-stage divider makes (jLo, jHi are members), or null for a range. */
+  stages: StageProducts | null;
 }
 
 /** 'auto' is the planner; 'walk' the walk over S alone, for tests that check one method against the other. */
@@ -60,15 +64,22 @@ function context(hw: Hardware, req: PlanRequest, fractional: boolean, strategy: 
   if (req.targetHz.num <= 0n || hw.dac.maxSampleRateHz.num <= 0n) return null;
   // J ≥ scale·f_sys / f_s max keeps the sample rate within the DAC's limit.
   const jRate = Number(ceil(div(clock, hw.dac.maxSampleRateHz)));
-  const jLo = Math.max(hw.divider.integerMin * scale, jRate, 1);
-  const jHi = hw.divider.integerMax * scale + (scale - 1);
+  let jLo = Math.max(hw.divider.integerMin * scale, jRate, 1);
+  let jHi = hw.divider.integerMax * scale + (scale - 1);
+  // A stage divider (F = 0 only): its smallest and largest members bound J.
+  const stages = stageProducts(hw.divider.stages);
+  if (stages !== null && jLo <= jHi) {
+    jLo = stages.next(jLo, jHi);
+    if (jLo === 0) return null;
+    jHi = stages.prev(jLo, jHi);
+  }
   const nMax = Math.min(hw.memory.tableLengthMax, Math.floor(hw.memory.budgetBytes / hw.dac.sampleBytes));
   const nMin = Math.max(1, hw.memory.tableLengthMin);
   const sLo = Math.max(1, Number(ceil(req.minSamplesPerCycle)));
   if (jLo > jHi || sLo > nMax) return null;
   return {
     hw, req, fractional, scale, clock, C: toNumber(clock), T: toNumber(req.targetHz),
-    jLo, jHi, nMin, nMax, sLo, powerOfTwo: hw.memory.powerOfTwo, strategy,
+    jLo, jHi, nMin, nMax, sLo, powerOfTwo: hw.memory.powerOfTwo, strategy, stages,
   };
 }
 
@@ -158,16 +169,21 @@ function walkPlans(ctx: Context, from: number, to: number, admit: (s: number) =>
     found.push({ c, err });
   };
   if (ctx.powerOfTwo) start = 2 ** Math.ceil(Math.log2(start));
+  // A stage divider: the nearest dividers the stages make stand in for floor and ceiling.
+  const near = ctx.stages === null ? null : new StageNeighbours(ctx.stages, ctx.jLo, ctx.jHi, ctx.clock, ctx.req.targetHz);
   for (let s = start; s <= to; s = nextS(ctx, s)) {
     if (!budget.take()) break;
     if (!a.admit(s)) continue;
     const n = shortestTable(ctx, s);
     if (n === 0) continue;
     const ideal = C / (T * s);
-    const jf = Math.min(ctx.jHi, Math.max(ctx.jLo, Math.floor(ideal)));
-    const jc = Math.min(ctx.jHi, Math.max(ctx.jLo, Math.ceil(ideal)));
-    offer({ j: jf, s, n });
-    if (jc !== jf) offer({ j: jc, s, n });
+    if (near !== null) near.visit(s, ideal, (j) => offer({ j, s, n }));
+    else {
+      const jf = Math.min(ctx.jHi, Math.max(ctx.jLo, Math.floor(ideal)));
+      const jc = Math.min(ctx.jHi, Math.max(ctx.jLo, Math.ceil(ideal)));
+      offer({ j: jf, s, n });
+      if (jc !== jf) offer({ j: jc, s, n });
+    }
     if (s >= sHigh) break;
   }
   const plans = found.filter((f) => f.err <= bestErr * (1 + 1e-9) + 1e-300).map((f) => toPlan(ctx, f.c));
@@ -235,7 +251,7 @@ function plansOfProduct(ctx: Context, k: number, from: number, to: number, admit
   divisorsInRange(k, lo, hi, divisors);
   for (const s of divisors) {
     const j = k / s;
-    if (j < ctx.jLo || j > ctx.jHi || !admit(s)) continue;
+    if (j < ctx.jLo || j > ctx.jHi || !admit(s) || (ctx.stages !== null && !ctx.stages.has(j))) continue;
     const n = shortestTable(ctx, s);
     if (n > 0) plans.push(toPlan(ctx, { j, s, n }));
   }
