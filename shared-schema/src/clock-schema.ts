@@ -2,8 +2,8 @@
 // truth for the file's keys: validation, the JSON Schema, the reference docs and hover text.
 
 import { z } from 'zod';
-import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO } from './defaults';
-import { optional, quantity, required, whole } from './schema-kit';
+import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO, DEFAULT_REGISTER_OFFSET } from './defaults';
+import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
 import { clockTreeKeys } from './clock-tree-schema';
 
 /** 100 GHz: far above any microcontroller, low enough to catch a slipped exponent. */
@@ -13,6 +13,21 @@ export const MAX_TABLE_LENGTH = 2 ** 26;
 export const MAX_DIVIDER_INTEGER = 2 ** 32;
 /** Above 16 bits the divider's period pattern (2^k samples) stops being a useful figure. */
 export const MAX_FRACTION_BITS = 16;
+
+/** Stage names become parts of C identifiers in exported headers. */
+export const STAGE_NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,31}$/;
+/** Stages the planner searches exactly (their products are tested by divisor windows). */
+export const MAX_DIVIDER_STAGES = 2;
+
+const stageSchema = z.strictObject({
+  min: required(whole(1, MAX_DIVIDER_INTEGER), 'Smallest value this stage divides by.'),
+  max: required(whole(1, MAX_DIVIDER_INTEGER), 'Largest value this stage divides by; the product of every stage\'s max may be at most 2^32.'),
+  'register-offset': optional(
+    z.number().int().min(-MAX_DIVIDER_INTEGER).max(MAX_DIVIDER_INTEGER),
+    'What the stage\'s register holds: value + register-offset, e.g. -1 for a counter that divides by its register + 1. Every register value must be 0 or more.',
+    DEFAULT_REGISTER_OFFSET,
+  ),
+}).describe('One counter stage: the range of values it divides by and how its register holds the value.');
 
 const frequency = () => quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ });
 
@@ -30,20 +45,25 @@ export const clockSchema = z
     ...clockTreeKeys,
     divider: required(
       z.strictObject({
-        integer: required(
+        integer: optionalDerived(
           z.strictObject({
             min: required(whole(1, MAX_DIVIDER_INTEGER), 'Smallest integer part I of the divider D = I + F/2^k.'),
             max: required(whole(1, MAX_DIVIDER_INTEGER), 'Largest integer part I of the divider D = I + F/2^k.'),
           }),
           'Range of the integer part I of the sample-clock divider.',
+          'required unless `stages` describes the divider',
         ),
         'fraction-bits': optional(
           whole(0, MAX_FRACTION_BITS),
           'k, the fraction bits of the divider D = I + F/2^k; 0 means an integer-only divider (no divider jitter).',
           DEFAULT_FRACTION_BITS,
         ),
+        stages: optional(
+          z.record(z.string().regex(STAGE_NAME_PATTERN), stageSchema),
+          `The divider as it is built, instead of \`integer\`: ${MAX_DIVIDER_STAGES === 2 ? 'one or two' : `up to ${MAX_DIVIDER_STAGES}`} counter stages in a chain, by name in chain order, e.g. \`prescaler\` then \`period\`. D is the product of one value from each stage (a timer that divides by (prescaler + 1)·(period + 1) is two stages with register-offset -1), so the planner uses only the dividers the stages can make; the stage values are chosen with the first stage as small as it can be, which leaves the last stage the longest count. Integer only: no fraction-bits.`,
+        ),
       }),
-      'The sample-clock divider: f_s = f_sys / D with D = I + F/2^k.',
+      'The sample-clock divider: f_s = f_sys / D with D = I + F/2^k, or D the product of counter stages.',
     ),
     dac: required(
       z.strictObject({

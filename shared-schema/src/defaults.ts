@@ -4,6 +4,8 @@
 import type { Shape } from './shape';
 
 export const DEFAULT_FRACTION_BITS = 0;
+/** A divider stage's register holds its value itself unless the clock file says otherwise. */
+export const DEFAULT_REGISTER_OFFSET = 0;
 export const DEFAULT_POWER_OF_TWO = false;
 export const DEFAULT_DUTY = '50 %';
 /**

@@ -63,6 +63,8 @@ export function planJson(p: PlanFigures) {
     dividerInteger: p.dividerInteger,
     dividerFraction: p.dividerFraction,
     fractionBits: p.fractionBits,
+    /** Counter stages only: each stage's value (their product is dividerInteger) and register content. */
+    ...(p.dividerStages !== undefined ? { dividerStages: p.dividerStages.map((st) => ({ name: st.name, value: st.value, register: st.register })) } : {}),
     sampleRateHz: toNumber(p.sampleRateHz),
     sampleRateHzExact: exactText(p.sampleRateHz),
     tableLength: p.tableLength,

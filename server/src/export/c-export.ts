@@ -6,7 +6,7 @@ import { toNumber } from '../../../shared-schema/src/rational';
 import { exactText } from '../cli/format-json';
 import { formatHz, formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { formatCycles, formatPpm, formatSignedHz } from '../cli/units';
-import { arrayBody, block, cDouble, cUnsigned, defines, lineComment } from './c-text';
+import { arrayBody, block, cDouble, cUnsigned, defines, lineComment, stageRows, stagesComment } from './c-text';
 import type { OutputIdentifiers } from './identifiers';
 import { specPrefix } from './identifiers';
 import type { LoadedSpec } from './load';
@@ -65,6 +65,7 @@ function outputComment(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
     `target   ${formatHz(o.analysis.targetHz)} +/- ${formatHz(tol)}`,
     `achieved ${formatHz(p.achievedHz)} (error ${formatSignedHz(p.errorHz)}, ${formatPpm(p.errorPpm)}; verdict ${o.analysis.planning.verdict})`,
     `f_s = ${formatHz(p.systemClockHz)} / ${p.dividerFraction === 0 ? p.dividerInteger : `(${p.dividerInteger} + ${p.dividerFraction}/${2 ** p.fractionBits})`} = ${formatHz(p.sampleRateHz)}; ${p.tableLength} samples hold ${formatCycles(p.cycles)} cycle(s), ${o.span} span`,
+    ...(p.dividerStages !== undefined ? [`divider stages: ${stagesComment(p.dividerStages)}`] : []),
     p.jitterFree
       ? 'divider jitter: none (integer divider)'
       : `divider jitter: period ${formatSeconds(p.jitter.samplePeriodJitterPkPkS)} pk-pk, ${formatSeconds(p.jitter.samplePeriodJitterRmsS)} rms; TIE ${formatSeconds(p.jitter.tiePkPkS)} pk-pk`,
@@ -93,6 +94,7 @@ function outputDefines(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
     [`${u}_SAMPLE_RATE_HZ`, cDouble(toNumber(p.sampleRateHz)), `exactly ${exactText(p.sampleRateHz)}`],
     [`${u}_FREQUENCY_HZ`, cDouble(toNumber(p.achievedHz)), `exactly ${exactText(p.achievedHz)}`],
   ];
+  rows.push(...stageRows(u, p.dividerStages));
   if (model.hardware.memory.powerOfTwo) rows.push([`${u}_TABLE_ALIGN`, cUnsigned(p.tableBytes), 'bytes; the DMA ring wraps on it']);
   return defines(rows);
 }

@@ -66,3 +66,27 @@ export function arrayBody(values: ArrayLike<number>, perLine: number): string {
   }
   return lines.join('\n');
 }
+
+/** A counter stage's part of the divider, as the plan reports it. */
+interface StageValue {
+  name: string;
+  value: number;
+  register: number;
+}
+
+/** "prescaler 12 (register 11) x period 1000 (register 999)". */
+export function stagesComment(stages: readonly StageValue[]): string {
+  return stages.map((st) => `${st.name} ${st.value} (register ${st.register})`).join(' x ');
+}
+
+/**
+ * Per stage the value it divides by and what its register holds: `<OUTPUT>_STAGE_<NAME>_VALUE`
+ * and `…_REGISTER` (names are letters, digits and _, distinct ignoring case, so macros never clash).
+ */
+export function stageRows(upper: string, stages: readonly StageValue[] | undefined): Array<[string, string, string?]> {
+  if (stages === undefined) return [];
+  return stages.flatMap((st): Array<[string, string, string?]> => [
+    [`${upper}_STAGE_${st.name.toUpperCase()}_VALUE`, cUnsigned(st.value), `${st.name}: the stage divides by this`],
+    [`${upper}_STAGE_${st.name.toUpperCase()}_REGISTER`, cUnsigned(st.register), `${st.name}: write this to its register`],
+  ]);
+}

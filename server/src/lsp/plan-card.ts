@@ -5,6 +5,7 @@ import { fromNumber, toNumber } from '../../../shared-schema/src/rational';
 import type { PlanFigures, Verdict } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
 import { formatBytes, formatCycles, formatDivider, formatHz, formatPpm, formatSeconds } from '../cli/units';
+import { stageRows } from './divider-views';
 
 export const VERDICT_WORDS: Record<Verdict, string> = {
   exact: 'exact, jitter-free',
@@ -42,6 +43,7 @@ export function planRows(plan: PlanFigures, targetHz: OutputAnalysis['targetHz']
     ['target', formatHz(targetHz)],
     ['achieved', `${formatHz(plan.achievedHz)} (${formatHz(plan.errorHz, true)}, ${formatPpm(plan.errorPpm)})`],
     ['sample clock', `${formatHz(plan.systemClockHz)} ${formatDivider(plan)} = ${formatHz(plan.sampleRateHz)}`],
+    ...stageRows(plan),
     [
       'table',
       `N = ${plan.tableLength} samples, M = ${formatCycles(plan.cycles)} cycle(s), S = ${Number(samplesPerCycle.toPrecision(6))} samples per cycle`,

@@ -71,6 +71,8 @@ export interface Plan {
   achievedHz: Rational;
   /** achievedHz − targetHz, signed. */
   errorHz: Rational;
+  /** With a divider of counter stages: each stage's value (their product is dividerInteger) and register content. */
+  dividerStages?: StageValue[];
   /**
    * Set when the search stopped at its work limit before proving this plan the nearest (only on
    * absurdly large divider × table domains): the best found, reported as such.

@@ -44,8 +44,8 @@ export const CODES = {
   },
   'bad-name': {
     severity: 'error',
-    title: 'Output name not allowed',
-    help: 'Output names become identifiers in exported tables: start with a letter or _, then letters, digits, _ or -, at most 64 characters.',
+    title: 'Name not allowed',
+    help: 'Output names become identifiers in exported tables: start with a letter or _, then letters, digits, _ or -, at most 64 characters. Divider stage names become parts of exported names too: a letter, then letters, digits or _, at most 32.',
   },
   'missing-key': {
     severity: 'error',
@@ -76,6 +76,11 @@ export const CODES = {
     severity: 'error',
     title: 'Value out of range',
     help: 'The value is outside what the key allows (for example a negative frequency, a minimum above its maximum, or a DAC wider than its sample bytes).',
+  },
+  'divider-form': {
+    severity: 'error',
+    title: 'Divider described two ways, or stages it cannot use',
+    help: 'A divider is either an integer range with fraction bits (`integer`, `fraction-bits`) or counter stages whose product is D (`stages`, one or two of them, whole numbers only). Keep the one form that describes how the divider is built.',
   },
   'unused-key': {
     severity: 'warning',

@@ -164,7 +164,11 @@ export function schemaDiagnostics(
     }
     if (issue.code === 'invalid_key') {
       const r = keyRange(doc, lines, path) ?? rangeFor(doc, lines, path, 'key');
-      out.push(diagnostic('bad-name', r, `Output name \`${String(path[path.length - 1])}\` is not allowed: start with a letter or _, then use letters, digits, _ or - (at most 64).`, outputOf(kind, path)));
+      const name = String(path[path.length - 1]);
+      const message = path.includes('stages')
+        ? `Stage name \`${name}\` is not allowed: start with a letter, then use letters and digits, joined by single _ (at most 32); it becomes part of C names.`
+        : `Output name \`${name}\` is not allowed: start with a letter or _, then use letters, digits, _ or - (at most 64).`;
+      out.push(diagnostic('bad-name', r, message, outputOf(kind, path)));
       // The schema checks no value under a key it rejects; check it here, so one pass says everything.
       if (kind === 'wave' && path.length === 2) {
         const inner = outputSchema.safeParse(valueAt(data, path));

@@ -19,6 +19,7 @@ import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-forma
 import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
 import { defaultMaxSamplesPerCycle } from '../planning/ceiling';
 import { pinnedProblems } from '../planning/pinned';
+import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
 import { entryRange, keyRange, locate, valueRange } from './nodes';
@@ -185,6 +186,8 @@ function pinPlan(
   for (const problem of pinnedProblems(hw, pinned)) {
     if (problem === 'divider-integer-out-of-range') {
       push('pinned-plan', at('divider'), `The divider's integer part ${dividerInteger} is outside the clock file's ${hw.divider.integerMin} to ${hw.divider.integerMax}: pick a divider within it.`);
+    } else if (problem === 'divider-not-stage-product') {
+      push('pinned-plan', at('divider'), stageMisfit(hw, dividerInteger));
     } else if (problem === 'sample-rate-too-high') {
       const rate = div(hw.systemClockHz, div(scaled, rat(steps)));
       push('pinned-plan', at('divider'), `This divider gives a sample rate of ${formatHz(rate)}, above the DAC's max-sample-rate ${formatHz(hw.dac.maxSampleRateHz)}: use a larger divider.`);
@@ -195,4 +198,15 @@ function pinPlan(
     }
   }
   return pinned;
+}
+
+/** Why the stages cannot make divider d, with the nearest dividers they can make. */
+function stageMisfit(hw: Hardware, d: number): string {
+  const stages = hw.divider.stages ?? [];
+  const names = stages.map((st) => `${st.name} (${st.min} to ${st.max})`).join(' × ');
+  const set = stageProducts(stages);
+  const near = set === null ? [] : [set.prev(set.min, d), set.next(d, set.max)].filter((v) => v > 0);
+  const split = (v: number): string => (splitDivider(stages, v) ?? []).map((st) => st.value).join(' × ');
+  const offer = near.length === 0 ? '' : `: the nearest they make ${near.length === 1 ? 'is' : 'are'} ${near.map((v) => `${v} (${split(v)})`).join(' and ')}`;
+  return `The divider ${d} is no product of the stages ${names}${offer}.`;
 }
