@@ -15,6 +15,7 @@ const specs: Array<[string, string, string[]]> = [
   ['tone-lab fixture (DMA ring, aligned tables, fractional divider)', path.join(FIXTURES, 'tone-lab.wave.yaml'), []],
   ['odd-names fixture (names that crowd the macro namespace)', path.join(FIXTURES, 'odd-names.wave.yaml'), []],
   ['demo (examples/), forced', DEMO, ['--force']],
+  ['stage-divider demo (examples/tone-bench: stage values and registers)', path.join(path.dirname(DEMO), 'tone-bench.wave.yaml'), []],
 ];
 
 const exported = new Map<string, Exported>();

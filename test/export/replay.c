@@ -101,11 +101,17 @@ static int replay(const char *name, unsigned long n, unsigned long div_int, unsi
 #define RING_CHECK(lower, UPPER)
 #endif
 
+/* The divider the hardware divides by; a build for counter stages passes one computed from the
+   stage registers the way the clock file says each register holds its value. */
+#ifndef WAVEPLAN_DIVIDER
+#define WAVEPLAN_DIVIDER(UPPER) (UPPER##_DIVIDER_INT)
+#endif
+
 #define REPLAY(lower, UPPER)                                                                  \
     for (i = 0; i < (unsigned long)(UPPER##_TABLE_LENGTH) && i < MAX_TABLE; i++)              \
         values[i] = (double)lower##_table[i];                                                 \
     failures += replay(#lower, (unsigned long)(UPPER##_TABLE_LENGTH),                         \
-                       (unsigned long)(UPPER##_DIVIDER_INT), (unsigned long)(UPPER##_DIVIDER_FRAC), \
+                       (unsigned long)WAVEPLAN_DIVIDER(UPPER), (unsigned long)(UPPER##_DIVIDER_FRAC), \
                        (unsigned)(UPPER##_DIVIDER_FRAC_BITS));                             \
     RING_CHECK(lower, UPPER)
 

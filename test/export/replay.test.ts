@@ -43,15 +43,19 @@ function parseReplay(text: string): Map<string, Measured> {
   return out;
 }
 
-const cases: Array<[string, string, string[], boolean]> = [
+// The stage-divider demo replays at the divider its registers make: (prescaler register + 1) ·
+// (period register + 1), as examples/tone-bench.clock.yaml describes its timer.
+const STAGE_DIVIDER = '-DWAVEPLAN_DIVIDER(U)=((U##_STAGE_PRESCALER_REGISTER + 1ul) * (U##_STAGE_PERIOD_REGISTER + 1ul))';
+const cases: Array<[string, string, string[], boolean, string[]?]> = [
   ['tone-lab fixture', path.join(FIXTURES, 'tone-lab.wave.yaml'), [], true],
   ['demo (examples/)', DEMO, ['--force'], false],
+  ['stage-divider demo (examples/tone-bench)', path.join(REPO, 'examples/tone-bench.wave.yaml'), [], false, [STAGE_DIVIDER]],
 ];
 const results = new Map<string, { outputs: JsonOutput[]; measured: Map<string, Measured>; dacBits: number; fullScaleV: number }>();
 const agreementPpm: string[] = [];
 
 beforeAll(async () => {
-  for (const [name, spec, extra, ring] of cases) {
+  for (const [name, spec, extra, ring, defines = []] of cases) {
     const dir = scratch('replay');
     const r = await run('export', [spec, '--c', dir, '--json', path.join(dir, 'plans.json'), ...extra]);
     expect(r.code, r.stderr).toBeLessThan(2);
@@ -60,7 +64,7 @@ beforeAll(async () => {
     const built = compile(
       'gcc',
       [
-        '-std=c99', ...STRICT, '-O2', '-DWAVEPLAN_ALLOW_UNCHECKED', ...(ring ? ['-DWAVEPLAN_RING'] : []),
+        '-std=c99', ...STRICT, '-O2', '-DWAVEPLAN_ALLOW_UNCHECKED', ...(ring ? ['-DWAVEPLAN_RING'] : []), ...defines,
         `-DWAVEPLAN_HEADER="${header}"`, `-DWAVEPLAN_OUTPUTS=${upper}_OUTPUTS`, `-DWAVEPLAN_CLOCK_HZ=${upper}_SYSTEM_CLOCK_HZ`,
         '-I', dir, path.join(REPO, 'test/export/replay.c'), path.join(dir, `${header.slice(0, -2)}.c`), '-o', path.join(dir, 'replay'),
       ],

@@ -71,8 +71,10 @@ export function alignColumns(rows: readonly string[][], rightAligned: ReadonlySe
 
 function hardwareSummary(hw: Hardware): string {
   const fraction = hw.divider.fractionBits > 0 ? ` + ${hw.divider.fractionBits}-bit fraction` : ', integer only';
+  const stages = hw.divider.stages;
+  const divider = stages === undefined ? `${hw.divider.integerMin}…${hw.divider.integerMax}${fraction}` : stages.map((st) => `${st.name} ${st.min}…${st.max}`).join(' × ');
   return (
-    `system clock ${formatHz(hw.systemClockHz)}, divider ${hw.divider.integerMin}…${hw.divider.integerMax}${fraction}, ` +
+    `system clock ${formatHz(hw.systemClockHz)}, divider ${divider}, ` +
     `${hw.dac.bits}-bit DAC up to ${formatHz(hw.dac.maxSampleRateHz)}, table budget ${formatBytes(hw.memory.budgetBytes)}`
   );
 }

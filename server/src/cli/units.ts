@@ -16,7 +16,9 @@ export const exactOrRounded = (r: Rational): string => decimalText(r);
 export const formatHz = (hz: Rational, signed = false): string => (signed ? formatSignedHz(hz) : formatUnsignedHz(hz));
 
 /** The divider as written in the trade: "÷3", or "÷1+244/256" when it has a binary fraction. */
-export function formatDivider(plan: Pick<Plan, 'dividerInteger' | 'dividerFraction' | 'fractionBits'>): string {
+export function formatDivider(plan: Pick<Plan, 'dividerInteger' | 'dividerFraction' | 'fractionBits' | 'dividerStages'>): string {
+  // A divider of counter stages shows their values, whose product is D: "÷3×25000".
+  if (plan.dividerStages !== undefined && plan.dividerStages.length > 1) return `÷${plan.dividerStages.map((st) => st.value).join('×')}`;
   if (plan.dividerFraction === 0) return `÷${plan.dividerInteger}`;
   return `÷${plan.dividerInteger}+${plan.dividerFraction}/${2 ** plan.fractionBits}`;
 }

@@ -22,7 +22,8 @@ const ratText = (r: Rational): string => (isInteger(r) ? r.num.toString() : toDe
 /** "divider 3, 500 samples, 1 cycle → 100 kHz (0 ppm)". */
 export function planText(p: PlanFigures): string {
   const cycles = ratText(p.cycles);
-  return `divider ${dividerText(p)}, ${p.tableLength} samples, ${cycles} cycle${cycles === '1' ? '' : 's'} → ${formatHz(p.achievedHz)} (${formatPpm(p.errorPpm)})`;
+  const stages = p.dividerStages !== undefined && p.dividerStages.length > 1 ? ` (${p.dividerStages.map((st) => `${st.name} ${st.value}`).join(' × ')})` : '';
+  return `divider ${dividerText(p)}${stages}, ${p.tableLength} samples, ${cycles} cycle${cycles === '1' ? '' : 's'} → ${formatHz(p.achievedHz)} (${formatPpm(p.errorPpm)})`;
 }
 
 const jitterText = (p: PlanFigures): string =>
