@@ -45,7 +45,12 @@ describe('the demo (examples/)', () => {
     const report = JSON.parse(run.stdout);
     expect(report.summary.errors).toBe(1);
     expect(report.summary.warnings).toBeGreaterThanOrEqual(2);
-    expect(report.files.map((f: { path: string }) => f.path)).toEqual(['examples/bench-rig.clock.yaml', 'examples/bench-rig.wave.yaml']);
+    expect(report.files.map((f: { path: string }) => f.path)).toEqual([
+      'examples/bench-rig.clock.yaml',
+      'examples/bench-rig.wave.yaml',
+      'examples/tone-bench.clock.yaml',
+      'examples/tone-bench.wave.yaml',
+    ]);
   });
 
   it('JSON report matches the golden file', () => {
