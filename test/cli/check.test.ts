@@ -98,7 +98,7 @@ describe('the demo (examples/)', () => {
     const out = path.join(dir, 'out.sarif');
     const run = runCli(['check', 'examples', '--format', 'sarif', '--output', out]);
     expect(run.code).toBe(1);
-    expect(run.stdout).toMatch(/^waveplan check FAILED: 2 files, \d+ outputs, 1 error, \d+ warnings \(report in /);
+    expect(run.stdout).toMatch(/^waveplan check FAILED: 4 files, \d+ outputs, 1 error, \d+ warnings \(report in /);
     const problems = validateSarif(out, dir);
     expect(problems).toEqual([]);
 
