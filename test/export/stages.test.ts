@@ -87,7 +87,7 @@ describe('stage dividers in the export (examples/tone-bench: prescaler 1…4096,
       const c = printed.get(o.identifier)!;
       const [pre, period] = o.plan.dividerStages!;
       expect([c.pv, c.pr, c.qv, c.qr].map(Number), o.name).toEqual([pre!.value, pre!.register, period!.value, period!.register]);
-      // f_out = f_sys·M/(D·N) with D = (prescaler register + 1)·(period register + 1) (DESIGN.md "Quantities").
+      // f_out = f_sys·M/(D·N) with D = (prescaler register + 1)·(period register + 1) (docs/DESIGN.md "Quantities").
       const d = (Number(c.pr) + 1) * (Number(c.qr) + 1);
       expect(d, o.name).toBe(Number(c.d));
       const f = new Fraction(60_000_000).mul(Number(c.m)).div(d * Number(c.n));
