@@ -72,9 +72,10 @@ describe('a clock file with divider stages', () => {
 });
 
 describe('plans on a two-stage timer', () => {
-  // derived: 0.2 Hz at 60 MHz is D·S = 300 000 000; with S ≤ 4096 the divider is at least 73 243,
-  // above the period's 32 768, so the prescaler must do part of it: 3 × 25 000 with S = 4000.
-  const a = plan(TIMER, '  marker:\n    shape: square\n    frequency: 0.2 Hz\n');
+  // derived: 0.2 Hz at 60 MHz is D·S = 300 000 000; exact plans rank first, then the largest S up
+  // to the ceiling 4096 (the table's limit too): S = 4000, D = 75 000, above the period's 32 768,
+  // so the prescaler takes part of it, as small as it can be: 3 × 25 000.
+  const a = plan(TIMER, '  marker:\n    shape: square\n    frequency: 0.2 Hz\n    max-samples-per-cycle: 4096\n');
   const p = a.outputs[0]!.planning.plan!;
 
   it('name each stage value and register; the values multiply to the divider', () => {
