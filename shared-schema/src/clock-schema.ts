@@ -14,8 +14,12 @@ export const MAX_DIVIDER_INTEGER = 2 ** 32;
 /** Above 16 bits the divider's period pattern (2^k samples) stops being a useful figure. */
 export const MAX_FRACTION_BITS = 16;
 
-/** Stage names become parts of C identifiers in exported headers. */
-export const STAGE_NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,31}$/;
+/**
+ * Stage names become parts of C identifiers in exported headers: a letter, then letters and
+ * digits in runs joined by single underscores (a double or trailing underscore would give a name
+ * C and C++ reserve), at most 32 characters.
+ */
+export const STAGE_NAME_PATTERN = /^(?=.{1,32}$)[A-Za-z][A-Za-z0-9]*(?:_[A-Za-z0-9]+)*$/;
 /** Stages the planner searches exactly (their products are tested by divisor windows). */
 export const MAX_DIVIDER_STAGES = 2;
 

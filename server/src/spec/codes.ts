@@ -45,7 +45,7 @@ export const CODES = {
   'bad-name': {
     severity: 'error',
     title: 'Name not allowed',
-    help: 'Output names become identifiers in exported tables: start with a letter or _, then letters, digits, _ or -, at most 64 characters. Divider stage names become parts of exported names too: a letter, then letters, digits or _, at most 32.',
+    help: 'Output names become identifiers in exported tables: start with a letter or _, then letters, digits, _ or -, at most 64 characters. Divider stage names become parts of exported names too: a letter, then letters and digits joined by single _, at most 32.',
   },
   'missing-key': {
     severity: 'error',

@@ -62,6 +62,7 @@ describe('a clock file with divider stages', () => {
     ['a register below 0', '  stages:\n    a: { min: 1, max: 10, register-offset: -2 }', 'out-of-range', /register value -1/],
     ['a product above 2^32', '  stages:\n    a: { min: 1, max: 65536 }\n    b: { min: 1, max: 65537 }', 'out-of-range', /4295032832/],
     ['a stage name that is no C name part', '  stages:\n    2nd: { min: 1, max: 10 }', 'bad-name', /Stage name `2nd`/],
+    ['a stage name with a double underscore (reserved in C and C++ names)', '  stages:\n    pre__scale: { min: 1, max: 10 }', 'bad-name', /Stage name `pre__scale`/],
   ])('%s is an error with its own message', (_, divider, code, message) => {
     const a = check(clockWith(divider));
     const found = a.diagnostics.filter((d) => d.severity === 'error');
