@@ -104,7 +104,12 @@ describe('the installed command, from an empty folder', () => {
     const run = waveplan(['check', 'specs', '--format', 'json']);
     const report = JSON.parse(run.stdout);
     expect(report.summary.errors).toBe(1);
-    expect(report.files.map((f: { path: string }) => f.path)).toEqual(['specs/bench-rig.clock.yaml', 'specs/bench-rig.wave.yaml']);
+    expect(report.files.map((f: { path: string }) => f.path)).toEqual([
+      'specs/bench-rig.clock.yaml',
+      'specs/bench-rig.wave.yaml',
+      'specs/tone-bench.clock.yaml',
+      'specs/tone-bench.wave.yaml',
+    ]);
   });
 
   it('check as SARIF: a file the standard validator passes (OASIS SARIF 2.1.0, sarif-multitool)', () => {
