@@ -2,6 +2,7 @@
 // pictures all use, so what the editor shows is what the firmware streams.
 
 import { type Rational } from '../../../shared-schema/src/rational';
+import { customUnit } from './custom-wave';
 import type { Hardware, Shape, TableSpan, Waveform } from './types';
 
 /** The unit waveform in [−1, 1] at a phase in cycles, 0 ≤ phase < 1. */
@@ -34,9 +35,13 @@ export function voltageToCode(v: number, dac: Hardware['dac']): number {
   return Math.min(Math.max(rawCode(v, dac), 0), 2 ** dac.bits - 1);
 }
 
-/** Ideal voltage of a waveform at a phase in cycles. */
-export function waveVolts(waveform: Waveform, phase: number): number {
-  return waveform.offsetV + (waveform.amplitudeVpp / 2) * unitWave(waveform.shape, waveform.duty, phase);
+/**
+ * Ideal voltage of a waveform at a phase in cycles. samplesPerCycle (S = N/M) matters only to a
+ * custom waveform band-limited below each plan's f_s/2.
+ */
+export function waveVolts(waveform: Waveform, phase: number, samplesPerCycle = Infinity): number {
+  const unit = waveform.custom ? customUnit(waveform.custom, phase, samplesPerCycle) : unitWave(waveform.shape, waveform.duty, phase);
+  return waveform.offsetV + (waveform.amplitudeVpp / 2) * unit;
 }
 
 /**
@@ -59,6 +64,11 @@ export function samplePhase(i: number, tableLength: number, cycles: Rational, sp
   return Number(r) / Number(modulus);
 }
 
+/** S = N/M as a number. */
+export function samplesPerCycle(tableLength: number, cycles: Rational): number {
+  return (tableLength * Number(cycles.den)) / Number(cycles.num);
+}
+
 /** DAC code of sample i (i = N gives the sample a continuous phase would play next). */
 export function sampleCode(
   waveform: Waveform,
@@ -68,7 +78,7 @@ export function sampleCode(
   cycles: Rational,
   span: TableSpan,
 ): number {
-  return voltageToCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span)), dac);
+  return voltageToCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span), samplesPerCycle(tableLength, cycles)), dac);
 }
 
 /** The table of DAC codes, clamped to the DAC's range (see clippedSamples). */
@@ -96,7 +106,7 @@ export function clippedSamples(
   const top = 2 ** dac.bits - 1;
   let clipped = 0;
   for (let i = 0; i < tableLength; i++) {
-    const code = rawCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span)), dac);
+    const code = rawCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span), samplesPerCycle(tableLength, cycles)), dac);
     if (code < 0 || code > top) clipped++;
   }
   return clipped;

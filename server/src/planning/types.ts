@@ -4,6 +4,7 @@
 import type { Rational } from '../../../shared-schema/src/rational';
 import type { ClockTree } from './clock-source';
 import type { DividerStage, StageValue } from './stages';
+import type { CustomWave } from './custom-wave';
 
 /** The hardware of a clock file, resolved to exact values. */
 export interface Hardware {
@@ -124,6 +125,8 @@ export interface Waveform {
   duty: number;
   amplitudeVpp: number;
   offsetV: number;
+  /** A table that is not the plain shape: a sum of harmonics or a sample file's cycle. */
+  custom?: CustomWave;
 }
 
 /**
