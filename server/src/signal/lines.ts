@@ -35,6 +35,8 @@ export interface LineSpectrum {
   jitterPower: number;
   /** Lines to search for the worst spur: every line (exact) or the evaluated ones (analytic). */
   candidates(): Iterable<number>;
+  /** Exact spectra: every line's power, index m (the hot loops read it directly). */
+  powers?: Float64Array;
 }
 
 export interface SpectrumOptions {
@@ -69,13 +71,17 @@ function exactLines(samples: Float64Array, jitter: number): LineSpectrum {
     *candidates() {
       for (let m = 1; m <= half; m++) yield m;
     },
+    powers: power,
   };
 }
 
-/** The table's DFT C_q (unnormalised), by one transform or bin by bin. */
-function tableBins(model: StreamModel, maxPoints: number): (q: number) => { re: number; im: number } {
+/**
+ * The table's DFT C_q (unnormalised): by one transform of N' when it fits the engine's limit
+ * (whatever the caller's limit on the whole period), else bin by bin.
+ */
+function tableBins(model: StreamModel): (q: number) => { re: number; im: number } {
   const nr = model.tableLength;
-  if (transformPoints(nr) <= maxPoints) {
+  if (transformPoints(nr) <= MAX_TRANSFORM_POINTS) {
     const re = Float64Array.from(model.codes);
     const im = new Float64Array(nr);
     fft(re, im);
@@ -106,14 +112,14 @@ function inverseMod(x: number, m: number): number {
   return ((s0 % m) + m) % m;
 }
 
-function analyticLines(model: StreamModel, maxPoints: number, withJitter: boolean): LineSpectrum {
+function analyticLines(model: StreamModel, withJitter: boolean): LineSpectrum {
   const { tableLength: nr, patternLength: L, common: g } = model;
   const jitter = withJitter ? jitterPower(model) : 0;
   const useJitter = withJitter && L > 1;
   const P = useJitter ? model.period : nr;
   const a = nr / g;
   const b = useJitter ? L / g : 1;
-  const C = tableBins(model, maxPoints);
+  const C = tableBins(model);
   const invA = b > 1 ? inverseMod(a, b) : 0;
   const invF = L > 1 ? inverseMod(model.fractionStep, L) : 0;
   const D = model.divider;
@@ -182,7 +188,7 @@ function analyticLines(model: StreamModel, maxPoints: number, withJitter: boolea
     };
     // The table's strongest bins: the fundamental's neighbourhood and the largest few overall when
     // the whole table was transformed.
-    const bins = strongestBins(model, C, maxPoints);
+    const bins = strongestBins(model, C);
     for (const q of bins) {
       fold(q * b);
       if (!useJitter) continue;
@@ -209,13 +215,13 @@ function analyticLines(model: StreamModel, maxPoints: number, withJitter: boolea
 }
 
 /** Bins of the table with the most power (up to 16), scanning it when it was transformed. */
-function strongestBins(model: StreamModel, C: (q: number) => { re: number; im: number }, maxPoints: number): number[] {
+function strongestBins(model: StreamModel, C: (q: number) => { re: number; im: number }): number[] {
   const nr = model.tableLength;
   const half = Math.floor(nr / 2);
   const fundamental = Math.round(model.cyclesPerSample * nr);
   const picked = new Set<number>();
   for (let h = 1; h <= 10 && h * fundamental <= half; h++) picked.add(h * fundamental);
-  if (transformPoints(nr) <= maxPoints) {
+  if (transformPoints(nr) <= MAX_TRANSFORM_POINTS) {
     const top: { q: number; p: number }[] = [];
     for (let q = 1; q <= half; q++) {
       const c = C(q);
@@ -243,10 +249,10 @@ export function lineSpectrum(model: StreamModel, options: SpectrumOptions = {}):
     if (transformPoints(model.tableLength) <= maxPoints) {
       return exactLines(Float64Array.from(model.codes), 0);
     }
-    return analyticLines(model, maxPoints, false);
+    return analyticLines(model, false);
   }
   if (transformPoints(model.period) <= maxPoints) {
     return exactLines(streamSamples(model), jitterPower(model));
   }
-  return analyticLines(model, maxPoints, true);
+  return analyticLines(model, true);
 }

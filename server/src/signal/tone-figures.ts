@@ -67,8 +67,9 @@ export function toneFigures(spectrum: LineSpectrum, cyclesPerSample: number, sha
   // of the total is no noise). With the fundamental on line 1 every line is a harmonic.
   let noise = 0;
   if (m1 === 1) noise = 0;
-  else if (spectrum.method === 'exact') {
-    for (let m = 1; m <= half; m++) if (m % m1 !== 0) noise += spectrum.power(m);
+  else if (spectrum.powers) {
+    const pw = spectrum.powers;
+    for (let m = 1; m <= half; m++) if (m % m1 !== 0) noise += pw[m];
     if (noise <= floor) noise = 0;
   } else {
     const rest = spectrum.bandPower - signal - distortion;
@@ -77,14 +78,19 @@ export function toneFigures(spectrum: LineSpectrum, cyclesPerSample: number, sha
 
   let worst = 0;
   let worstLine = -1;
-  for (const m of spectrum.candidates()) {
-    if (m === m1 || m === 0) continue;
-    if (shapeHarmonicsAreSignal && isHarmonic(m)) continue;
-    const p = spectrum.power(m);
+  const consider = (m: number, p: number) => {
+    if (m === m1 || m === 0) return;
+    if (shapeHarmonicsAreSignal && isHarmonic(m)) return;
     if (p > worst) {
       worst = p;
       worstLine = m;
     }
+  };
+  if (spectrum.powers) {
+    const pw = spectrum.powers;
+    for (let m = 1; m < pw.length; m++) if (pw[m] > worst) consider(m, pw[m]);
+  } else {
+    for (const m of spectrum.candidates()) consider(m, spectrum.power(m));
   }
   const hasSpur = worst > floor;
   const sinadNoise = noise + (distortion > floor ? distortion : 0);
