@@ -37,7 +37,7 @@ describe('every figure agrees with an independent FFT of the exported table with
     ['12-bit sine, 4096 × 127', { waveform: fullScale('sine', 12), bits: 12, N: 4096, M: 127 }, 127],
     ['10-bit sine, 1000 × 7', { waveform: fullScale('sine', 10), bits: 10, N: 1000, M: 7 }, 7],
     ['8-bit sine, 7279 × 738 (the demo carrier)', { waveform: fullScale('sine', 8), bits: 8, N: 7279, M: 738 }, 738],
-    ['12-bit sine at 1 Vpp, 2000 × 3', { waveform: { ...fullScale('sine', 12), amplitudeVpp: 1 }, bits: 12, N: 2000, M: 3 }, 3],
+    ['12-bit sine at 1 Vpp: 2000 × 3', { waveform: { ...fullScale('sine', 12), amplitudeVpp: 1 }, bits: 12, N: 2000, M: 3 }, 3],
     ['12-bit sine, M = 10.5 pinned (broken seam)', { waveform: fullScale('sine', 12), bits: 12, N: 64, M: rat(21, 2) }, 0],
     ['12-bit sine, closed span 257 × 5', { waveform: fullScale('sine', 12), bits: 12, N: 257, M: 5, span: 'closed' }, 5],
   ];
