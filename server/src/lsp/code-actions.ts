@@ -11,6 +11,7 @@ import { planOutput } from '../planning/choose';
 import type { Hardware, PlanFigures } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
 import { formatPpm } from '../cli/units';
+import { budgetFixes } from './budget-fixes';
 import { SOURCE, type DiagnosticData } from './diagnostics';
 import { setKey } from './entry-edits';
 import { leavesInPlace, previewFix, quickFix, resultClause, type Recheck } from './fix-preview';
@@ -193,6 +194,10 @@ export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: 
       continue;
     }
     if (!hw || analysis.kind !== 'wave') continue;
+    if (d.code === 'over-budget' || d.code === 'fitted-to-budget') {
+      actions.push(...budgetFixes(doc, analysis, d, token, recheck));
+      continue;
+    }
     const output = outputOf(analysis, d);
     if (!output) continue;
     const c: Context = { doc, analysis, output, hw, d, token };

@@ -185,4 +185,6 @@ export interface OutputPlanning {
   readonly bestFractional: PlanFigures | null;
   /** |errorHz| of `plan` ≤ toleranceHz. */
   withinTolerance: boolean;
+  /** Set when the board's memory budget made the output take `plan` instead of this, its own plan. */
+  shrunkFrom?: PlanFigures;
 }

@@ -5,8 +5,8 @@ import * as nodePath from 'node:path';
 import type { ClockFile } from '../../../shared-schema/src/clock-schema';
 import type { FileKind } from '../../../shared-schema/src/keys';
 import { outputSchema, type OutputEntry, type WaveFile } from '../../../shared-schema/src/wave-schema';
-import { formatBytes } from '../../../shared-schema/src/quantity-format';
 import type { Hardware } from '../planning/types';
+import { fitToBudget } from './board-budget';
 import { buildHardware } from './clock-model';
 import { keyRange, valueRange } from './nodes';
 import { Memo } from './memo';
@@ -127,11 +127,7 @@ function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
 }
 
 function overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, outputsKey: Range): void {
-  const budgetBytes = hardware.memory.budgetBytes;
-  analysis.memory = { usedBytes, budgetBytes };
-  if (usedBytes > budgetBytes) {
-    analysis.diagnostics.push(diagnostic('over-budget', outputsKey, `All tables together take ${formatBytes(usedBytes)}, more than the ${formatBytes(budgetBytes)} memory budget: shorten tables, drop an output, or raise the budget.`));
-  }
+  fitToBudget(analysis, hardware, outputsKey, usedBytes);
 }
 
 // A clock file's text gives one Hardware object while it stays in this memo, so the outputs

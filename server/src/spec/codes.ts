@@ -167,10 +167,15 @@ export const CODES = {
     title: 'Table larger than the memory budget',
     help: "One output's table alone is larger than the memory budget of the clock file. Shorten the table (fewer cycles) or raise the budget.",
   },
+  'fitted-to-budget': {
+    severity: 'information',
+    title: 'Table shrunk to fit the memory budget',
+    help: "The outputs' own plans together took more than the memory budget, so this output takes a smaller plan within its tolerance: the board's plans are chosen for the largest smallest share of each output's own samples per cycle, then the smallest worst error against the tolerances, then the fewest bytes. The message names the samples per cycle and bytes it gave up; pin a plan or raise the budget to choose otherwise.",
+  },
   'over-budget': {
     severity: 'error',
     title: 'Tables over the memory budget',
-    help: 'All tables together need more RAM than the memory budget of the clock file. Shorten tables, drop an output, or raise the budget.',
+    help: "All tables together need more RAM than the memory budget of the clock file, even with every output shrunk as far as its tolerance allows (pinned plans and plans outside their tolerance keep their size). The message names the outputs that take the most and the least total that would fit. Raise the budget, widen tolerances, or drop an output.",
   },
   'too-many-outputs': {
     severity: 'error',

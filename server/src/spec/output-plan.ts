@@ -28,7 +28,7 @@ export function planEntry(name: string, entry: OutputEntry, quantities: Quantiti
   if (!draft) return { diagnostics, tableBytes: 0 };
   try {
     const planning = planOutput(hardware, draft.request);
-    const toleranceText = quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
+    const toleranceText = draft.toleranceText ?? quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
     diagnostics.push(...planningDiagnostics(draft, planning, hardware, toleranceText));
     return { diagnostics, output: { ...draft, planning }, tableBytes: planning.plan?.tableBytes ?? 0 };
   } catch (e) {

@@ -50,6 +50,8 @@ export interface OutputAnalysis {
   /** Ranges of the entry's own keys' values, by key name (e.g. "frequency", "plan"). */
   valueRanges: Record<string, Range>;
   targetHz: Rational;
+  /** The tolerance as written (or its default), for messages. */
+  toleranceText?: string;
   request: OutputRequest;
   planning: OutputPlanning;
 }

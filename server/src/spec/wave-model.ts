@@ -146,7 +146,8 @@ export function buildOutput(
     request.pinned = pinned;
   }
   const entryR = entryRange(doc, lines, ['outputs', name]) ?? nameRange;
-  return { draft: { name, nameRange, entryRange: entryR, valueRanges, targetHz, request }, diagnostics };
+  const toleranceText = get('tolerance')?.text ?? DEFAULT_TOLERANCE;
+  return { draft: { name, nameRange, entryRange: entryR, valueRanges, targetHz, toleranceText, request }, diagnostics };
 }
 
 type Push = (code: 'pinned-plan', range: Range, message: string) => void;

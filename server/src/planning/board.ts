@@ -1,0 +1,134 @@
+// One memory budget for the board. When the outputs' own plans together take more than the
+// budget, every output that can shrink (its plan within tolerance, not pinned) takes a plan from
+// its menu (shrink.ts) so that the total fits, chosen by, in order:
+//   1. the largest smallest share S / S_own over the outputs (S_own: the S of the output's own
+//      plan, which is at most its S max whenever a plan there meets the tolerance);
+//   2. then the smallest worst error share, |error| / tolerance, over the outputs;
+//   3. then the fewest bytes in all;
+// and, per output, the ranking of ranking.ts among its plans of that table length.
+// Each step is a search over the finitely many values the menus offer: the bytes an output needs
+// only grow with the share asked and only fall with the error allowed, so the best value is the
+// largest (smallest) one whose total still fits, found by bisection.
+
+import { type Rational, cmp, div, mul, rat } from '../../../shared-schema/src/rational';
+import { type Preference, bestRanked } from './ranking';
+import type { MenuPlan, ShrinkMenu } from './shrink';
+import type { Plan } from './types';
+
+export interface BoardOutput {
+  /** Bytes of the output's own plan (0 without one). */
+  bytes: number;
+  /** The smaller plans it could take; null when it keeps its plan (pinned, outside tolerance, none). */
+  menu: ShrinkMenu | null;
+  pref: Preference;
+}
+
+export interface BoardFit {
+  /** The outputs' own plans took more than the budget. */
+  over: boolean;
+  /** Some choice within every output's tolerance fits (always true when not over). */
+  fits: boolean;
+  /** Per output: the plan it takes instead of its own, or null to keep its own. */
+  plans: (Plan | null)[];
+  /** Total bytes of the chosen plans (of the own plans when nothing fits). */
+  totalBytes: number;
+  /** The fewest bytes any choice within tolerance takes. */
+  leastBytes: number;
+  /** The objective reached: smallest share of S_own, largest share of the tolerance (null when not over or nothing fits). */
+  minShare: Rational | null;
+  worstErrorShare: Rational | null;
+  /** Every menu scan finished within its budget (else the choice is the best found). */
+  complete: boolean;
+}
+
+const ONE = rat(1);
+
+/** min(1, S / S_own) of a menu plan. */
+const shareOf = (menu: ShrinkMenu, p: MenuPlan): Rational => {
+  const s = div(rat(p.n), rat(p.m));
+  const share = div(s, menu.sRef);
+  return cmp(share, ONE) > 0 ? ONE : share;
+};
+
+/** The largest index i in [lo, hi] with ok(i), given ok is true up to some index and false after; lo − 1 when none. */
+function lastTrue(lo: number, hi: number, ok: (i: number) => boolean): number {
+  let a = lo - 1;
+  let b = hi + 1;
+  while (b - a > 1) {
+    const mid = (a + b) >> 1;
+    if (ok(mid)) a = mid;
+    else b = mid;
+  }
+  return a;
+}
+
+export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): BoardFit {
+  const own = outputs.reduce((t, o) => t + o.bytes, 0);
+  const keep = outputs.map(() => null);
+  if (own <= budgetBytes) return { over: false, fits: true, plans: keep, totalBytes: own, leastBytes: own, minShare: null, worstErrorShare: null, complete: true };
+  const fixed = outputs.reduce((t, o) => t + (o.menu === null ? o.bytes : 0), 0);
+  const menus = outputs.map((o) => o.menu);
+  const frontiers = menus.map((m) => (m === null ? [] : m.frontier()));
+  const bytesOf = (i: number, n: number): number => n * menus[i]!.sampleBytes;
+  const least = fixed + frontiers.reduce((t, f, i) => t + (f.length > 0 ? bytesOf(i, f[0]!.n) : 0), 0);
+  const complete = (): boolean => menus.every((m) => m === null || m.complete);
+  if (least > budgetBytes) {
+    return { over: true, fits: false, plans: keep, totalBytes: own, leastBytes: least, minShare: null, worstErrorShare: null, complete: complete() };
+  }
+
+  // 1. The smallest share: every value a frontier point offers, ascending.
+  const shares: Rational[][] = frontiers.map((f, i) => f.map((p) => shareOf(menus[i]!, p)));
+  const values = uniqueSorted(shares.flat());
+  /** Fewest bytes of output i with share ≥ σ (its frontier rises in share). */
+  const minIndex = (i: number, sigma: Rational): number => shares[i]!.findIndex((s) => cmp(s, sigma) >= 0);
+  const totalAt = (sigma: Rational): number =>
+    fixed + frontiers.reduce((t, f, i) => (f.length === 0 ? t : t + bytesOf(i, f[minIndex(i, sigma)]!.n)), 0);
+  const best = lastTrue(0, values.length - 1, (k) => totalAt(values[k]!) <= budgetBytes);
+  const sigma = values[best]!;
+
+  // 2. The largest error share, with every output at S ≥ σ·S_own.
+  const floors = menus.map((m) => (m === null ? null : mul(sigma, m.sRef)));
+  const starts = frontiers.map((f, i) => (menus[i] === null ? null : f[minIndex(i, sigma)]!));
+  const atSigma = starts.reduce((t, p, i) => (p === null ? t : t + bytesOf(i, p.n)), fixed);
+  // No output may take more than the room the others leave at their fewest bytes for σ.
+  const stairs = menus.map((m, i) => {
+    if (m === null) return [];
+    const room = Math.floor((budgetBytes - atSigma) / m.sampleBytes) + starts[i]!.n;
+    return m.staircase(floors[i]!, starts[i]!, room);
+  });
+  const errorValues = uniqueSorted(stairs.flat().map((s) => s.share));
+  /** Fewest bytes of output i with error share ≤ ρ (its staircase falls in error share). */
+  const stairIndex = (i: number, rho: Rational): number => stairs[i]!.findIndex((s) => cmp(s.share, rho) <= 0);
+  const fitsAt = (rho: Rational): boolean => {
+    let total = fixed;
+    for (let i = 0; i < outputs.length; i++) {
+      if (menus[i] === null) continue;
+      const k = stairIndex(i, rho);
+      if (k < 0) return false;
+      total += bytesOf(i, stairs[i]![k]!.plan.n);
+    }
+    return total <= budgetBytes;
+  };
+  // Feasible for every ρ from some value up: the first feasible value, by bisection on its complement.
+  const rhoIndex = lastTrue(0, errorValues.length - 1, (k) => !fitsAt(errorValues[k]!)) + 1;
+  const rho = errorValues[rhoIndex]!;
+
+  // 3. Per output the fewest bytes at (σ, ρ), its ranking deciding between plans of that length.
+  let total = fixed;
+  const plans = menus.map((m, i) => {
+    if (m === null) return null;
+    const n = stairs[i]![stairIndex(i, rho)]!.plan.n;
+    total += bytesOf(i, n);
+    const chosen = bestRanked(m.plansAt(n, floors[i]!, rho), outputs[i]!.pref, m.fractional);
+    return chosen !== null && sameTable(chosen, m.own) ? null : chosen;
+  });
+  return { over: true, fits: true, plans, totalBytes: total, leastBytes: least, minShare: sigma, worstErrorShare: rho, complete: complete() };
+}
+
+const sameTable = (a: Plan, b: Plan): boolean =>
+  a.dividerInteger === b.dividerInteger && a.dividerFraction === b.dividerFraction && a.tableLength === b.tableLength && cmp(a.cycles, b.cycles) === 0;
+
+function uniqueSorted(xs: Rational[]): Rational[] {
+  const sorted = [...xs].sort(cmp);
+  return sorted.filter((x, i) => i === 0 || cmp(x, sorted[i - 1]!) !== 0);
+}
