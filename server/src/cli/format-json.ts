@@ -86,6 +86,11 @@ export function planJson(p: PlanFigures) {
     seamJumpLsb: p.seam.jumpLsb,
     seamCause: p.seam.cause,
     tableBytes: p.tableBytes,
+    /** Square waves: the duty the table really has (whole S: H/S), as a share; null for other shapes. */
+    dutyAchieved: p.dutyAchieved ? toNumber(p.dutyAchieved) : null,
+    dutyAchievedExact: p.dutyAchieved ? exactText(p.dutyAchieved) : null,
+    /** Edges and corners: their wander from cycle to cycle in seconds (0 with whole S); null for a sine. */
+    edgeWanderS: p.edgeWanderS ?? null,
     /** False only when the search stopped at its work limit (absurdly large domains). */
     provenNearest: p.searchLimited !== true,
   };

@@ -6,6 +6,7 @@ import { toNumber } from '../../../shared-schema/src/rational';
 import { exactText } from '../cli/format-json';
 import { formatHz, formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { formatCycles, formatPpm, formatSignedHz } from '../cli/units';
+import { dutyPhrase } from '../spec/planning-diagnostics';
 import { arrayBody, block, cDouble, cUnsigned, defines, lineComment, stageRows, stagesComment } from './c-text';
 import type { OutputIdentifiers } from './identifiers';
 import { specPrefix } from './identifiers';
@@ -61,7 +62,7 @@ function outputComment(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
   const w = o.analysis.request.waveform;
   const tol = o.analysis.request.toleranceHz;
   const lines = [
-    `${o.analysis.name} (${ids.lower}): ${w.shape}${w.shape === 'square' ? ` ${Number((w.duty * 100).toPrecision(4))} % duty` : ''}, ${Number(w.amplitudeVpp.toPrecision(6))} Vpp around ${Number(w.offsetV.toPrecision(6))} V`,
+    `${o.analysis.name} (${ids.lower}): ${w.shape}${dutyPhrase(p) ? ` ${dutyPhrase(p)}` : ''}, ${Number(w.amplitudeVpp.toPrecision(6))} Vpp around ${Number(w.offsetV.toPrecision(6))} V`,
     `target   ${formatHz(o.analysis.targetHz)} +/- ${formatHz(tol)}`,
     `achieved ${formatHz(p.achievedHz)} (error ${formatSignedHz(p.errorHz)}, ${formatPpm(p.errorPpm)}; verdict ${o.analysis.planning.verdict})`,
     `f_s = ${formatHz(p.systemClockHz)} / ${p.dividerFraction === 0 ? p.dividerInteger : `(${p.dividerInteger} + ${p.dividerFraction}/${2 ** p.fractionBits})`} = ${formatHz(p.sampleRateHz)}; ${p.tableLength} samples hold ${formatCycles(p.cycles)} cycle(s), ${o.span} span`,

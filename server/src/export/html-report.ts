@@ -9,6 +9,7 @@ import { formatCycles, formatDivider, formatPpm, formatSignedHz } from '../cli/u
 import type { Hardware } from '../planning/types';
 import { jitterSvg, memorySvg, seamSvg, svgDataUri, waveformSvg } from '../render';
 import { escapeXml as esc } from '../render/svg';
+import { dutyPhrase } from '../spec/planning-diagnostics';
 import type { OutputAnalysis } from '../spec/types';
 import { REPORT_CSS } from './html-style';
 import type { LoadedSpec } from './load';
@@ -67,7 +68,7 @@ function outputArticle(i: number, o: OutputAnalysis, hw: Hardware | null): strin
   if (!p || !hw) return `<article class="output" id="${anchor(i, o)}">${head}<p class="none">No plan: see the findings.</p></article>`;
   const span = spanOf(o);
   const figures: Array<[string, string]> = [
-    ['shape', `${w.shape}${w.shape === 'square' ? `, ${Number((w.duty * 100).toPrecision(4))} % duty` : ''}, ${Number(w.amplitudeVpp.toPrecision(6))} Vpp around ${Number(w.offsetV.toPrecision(6))} V`],
+    ['shape', `${w.shape}${dutyPhrase(p) ? `, ${dutyPhrase(p)}` : ''}, ${Number(w.amplitudeVpp.toPrecision(6))} Vpp around ${Number(w.offsetV.toPrecision(6))} V`],
     ['target', `${formatHz(o.targetHz)} ± ${formatHz(o.request.toleranceHz)}`],
     ['achieved', formatHz(p.achievedHz)],
     ['error', `${formatSignedHz(p.errorHz)} (${formatPpm(p.errorPpm)})`],

@@ -7,6 +7,7 @@ import { sampleType } from './c-export';
 import type { OutputIdentifiers } from './identifiers';
 import type { LoadedSpec } from './load';
 import type { ExportModel } from './model';
+import type { Waveform } from '../planning/types';
 
 export interface ExportedSpec {
   spec: LoadedSpec;
@@ -36,7 +37,7 @@ export function exportJson(specs: readonly ExportedSpec[]): string {
         name: o.analysis.name,
         identifier: ids?.get(o.analysis.name)?.lower ?? null,
         shape: o.analysis.request.waveform.shape,
-        waveform: o.analysis.request.waveform,
+        waveform: waveformJson(o.analysis.request.waveform),
         targetHz: toNumber(o.analysis.targetHz),
         targetHzExact: exactText(o.analysis.targetHz),
         toleranceHz: toNumber(o.analysis.request.toleranceHz),
@@ -54,4 +55,9 @@ export function exportJson(specs: readonly ExportedSpec[]): string {
   };
   const text = JSON.stringify(doc, null, 2).replace(/"\\u0000table(\d+)"/g, (_, i: string) => tables[Number(i)]);
   return `${text}\n`;
+}
+
+/** The waveform as JSON numbers (the exact duty stays in the engine; `plan.dutyAchieved` has the table's). */
+function waveformJson(w: Waveform): Pick<Waveform, 'shape' | 'duty' | 'amplitudeVpp' | 'offsetV'> {
+  return { shape: w.shape, duty: w.duty, amplitudeVpp: w.amplitudeVpp, offsetV: w.offsetV };
 }

@@ -5,7 +5,8 @@ import { InlayHintKind, type InlayHint, type Range } from 'vscode-languageserver
 import type { TextDocument } from 'vscode-languageserver-textdocument';
 import type { PlanFigures } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
-import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds } from '../cli/units';
+import { cmp, mul, rat } from '../../../shared-schema/src/rational';
+import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds, significantText } from '../cli/units';
 import { clockShareHint } from './clock-views';
 import { VERDICT_WORDS } from './plan-card';
 
@@ -14,6 +15,8 @@ export function hintText(plan: PlanFigures): string {
   // RMS sample-period jitter; the hover card gives the peak-to-peak and TIE figures.
   if (!plan.jitterFree) parts.push(`jitter ${formatSeconds(plan.jitter.samplePeriodJitterRmsS)}`);
   parts.push(plan.seam.ok ? 'seam ok' : `seam jump ${formatLsb(plan.seam.jumpLsb)}`);
+  // A square's duty when the table's whole samples cannot hold the asked one exactly.
+  if (plan.dutyAchieved && plan.dutyAsked && cmp(plan.dutyAchieved, plan.dutyAsked) !== 0) parts.push(`duty ${significantText(mul(plan.dutyAchieved, rat(100)), 4)} %`);
   return parts.join(' · ');
 }
 

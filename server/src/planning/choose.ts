@@ -7,7 +7,7 @@
 // best-ranked plan among all plans at G's error (ties.ts), which is then the nearest plan the
 // ranking prefers, within the tolerance or not. Whole-S shapes rank class by class (whole.ts).
 
-import { type Rational, abs, cmp, sign } from '../../../shared-schema/src/rational';
+import { type Rational, abs, cmp, isInteger, sign } from '../../../shared-schema/src/rational';
 import { PlanningCache, planningKey } from './cache';
 import { withinWorstCase } from './clock-error';
 import { jitterFreeDomain, fractionalDomain } from './domain';
@@ -16,7 +16,8 @@ import { pinnedPlan } from './pinned';
 import { type Preference, samplesPerCycle, withinTolerance } from './ranking';
 import { bestFractional, nearestJitterFree } from './search';
 import { bestAtError } from './ties';
-import { wholeCyclePlans } from './whole';
+import { realisesDuty } from './duty';
+import { dutyAlternatives, wholeCyclePlans } from './whole';
 import type { Hardware, OutputPlanning, OutputRequest, Plan, PlanFigures, Verdict } from './types';
 
 /** The memo shared by every caller of planOutput (language server, checker, exporters). */
@@ -90,6 +91,13 @@ export function planOutputUncached(hw: Hardware, req: OutputRequest): OutputPlan
   const result = (verdict: Verdict, plan: PlanFigures | null, withinTolerance: boolean): OutputPlanning => {
     const planning = { verdict, plan, nearestJitterFree: nearest, withinTolerance } as OutputPlanning;
     Object.defineProperty(planning, 'bestFractional', { get: fractionalNearest, enumerable: true });
+    // A square within tolerance whose whole S misses the duty: what the warning names.
+    const duty = pref.duty;
+    if (duty !== null && plan !== null && withinTolerance && !realisesDuty(duty, samplesPerCycle(plan)) && isInteger(samplesPerCycle(plan))) {
+      const fractional = plan.dividerFraction !== 0;
+      const alt = dutyAlternatives(hw, req, fractional, pref);
+      planning.dutyMiss = { nearestDuty: describe(alt.nearestDuty), exactDuty: describe(alt.exactDuty) };
+    }
     return planning;
   };
 

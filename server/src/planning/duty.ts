@@ -5,8 +5,9 @@
 // With S not whole the edges fall on different samples from cycle to cycle: the table's duty is
 // then its share of high samples, and the edges wander by up to one sample period.
 
-import { type Rational, abs, cmp, floor, gcd, isInteger, rat, sub } from '../../../shared-schema/src/rational';
+import { type Rational, abs, ceil, cmp, floor, gcd, isInteger, mul, rat, sub } from '../../../shared-schema/src/rational';
 import type { DutyPreference } from './ranking';
+import type { TableSpan } from './types';
 
 /** H, the high samples of one cycle of S (whole) samples at the asked duty. */
 export function highSamples(asked: Rational, s: number): number {
@@ -52,9 +53,44 @@ function highSamplesF(asked: number, s: number): number {
  * ((−c·N) mod M)/M periods; over the cycles those take every multiple of g/M below 1, g = gcd(N, M),
  * so the spread is (M − g)/M (0 when S = N/M is whole).
  */
-export function edgeWanderSamples(tableLength: number, cycles: Rational): number {
-  if (!isInteger(cycles) || cycles.num < 1n) return 1;
+export function edgeWanderSamples(tableLength: number, cycles: Rational, span: TableSpan = 'open'): number {
+  // A closed span or a fractional count of cycles breaks the layout every table: up to a sample.
+  if (span !== 'open' || !isInteger(cycles) || cycles.num < 1n) return 1;
   const m = cycles.num;
   const g = gcd(BigInt(tableLength), m);
   return Number(m - g) / Number(m);
+}
+
+/** The whole-S table's cycle length, when the table is laid out in whole cycles of whole S samples (open span). */
+export function wholeCycleLength(tableLength: number, cycles: Rational, span: TableSpan): number | null {
+  if (span !== 'open' || !isInteger(cycles) || cycles.num < 1n) return null;
+  const m = Number(cycles.num);
+  return tableLength % m === 0 ? tableLength / m : null;
+}
+
+/**
+ * The duty the square table has: H/S with whole S (open span); else its share of high samples,
+ * counted over the table (phases frac(M·i/N) below the asked duty, as table.ts lays them out).
+ */
+export function tableDuty(asked: Rational, tableLength: number, cycles: Rational, span: TableSpan): Rational {
+  const s = wholeCycleLength(tableLength, cycles, span);
+  if (s !== null) return rat(highSamples(asked, s), s);
+  const n = Math.max(1, Math.floor(tableLength));
+  const intervals = span === 'open' ? n : n - 1;
+  if (intervals <= 0) return rat(1);
+  if (isInteger(cycles) && span === 'open') {
+    // Phases k·g/N (g = gcd(M, N)), each g times: g·ceil(duty·N/g) of them lie below the duty.
+    const g = Number(gcd(cycles.num, BigInt(n)));
+    const below = ceil(mul(asked, rat(n / g)));
+    return rat(BigInt(g) * below, BigInt(n));
+  }
+  // A fractional count of cycles (a pinned plan): count the table's own phases.
+  let high = 0;
+  const modulus = cycles.den * BigInt(intervals);
+  for (let i = 0; i < n; i++) {
+    const r = (cycles.num * BigInt(i)) % modulus;
+    // frac < duty  ⇔  r·duty.den < duty.num·modulus
+    if (r * asked.den < asked.num * modulus) high++;
+  }
+  return rat(high, n);
 }

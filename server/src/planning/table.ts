@@ -1,8 +1,9 @@
 // The sample table of one output: the exact function the exporter, the seam check and the
 // pictures all use, so what the editor shows is what the firmware streams.
 
-import { type Rational } from '../../../shared-schema/src/rational';
+import { type Rational, fromNumber } from '../../../shared-schema/src/rational';
 import { customUnit } from './custom-wave';
+import { highSamples, wholeCycleLength } from './duty';
 import type { Hardware, Shape, TableSpan, Waveform } from './types';
 
 /** The unit waveform in [−1, 1] at a phase in cycles, 0 ≤ phase < 1. */
@@ -69,6 +70,19 @@ export function samplesPerCycle(tableLength: number, cycles: Rational): number {
   return (tableLength * Number(cycles.den)) / Number(cycles.num);
 }
 
+/**
+ * The waveform a table of this layout plays: a square with a whole number S of samples per cycle
+ * is high for exactly H of them (duty.ts), so its duty becomes H/S — set a hair above H − 1 samples'
+ * phase and below H's, so that the phases (k/S, computed in doubles) split exactly at H.
+ */
+export function tableWaveform(waveform: Waveform, tableLength: number, cycles: Rational, span: TableSpan): Waveform {
+  if (waveform.shape !== 'square' || waveform.custom) return waveform;
+  const s = wholeCycleLength(tableLength, cycles, span);
+  if (s === null) return waveform;
+  const h = highSamples(waveform.dutyExact ?? fromNumber(waveform.duty), s);
+  return { ...waveform, duty: (h - 0.5) / s };
+}
+
 /** DAC code of sample i (i = N gives the sample a continuous phase would play next). */
 export function sampleCode(
   waveform: Waveform,
@@ -78,7 +92,8 @@ export function sampleCode(
   cycles: Rational,
   span: TableSpan,
 ): number {
-  return voltageToCode(waveVolts(waveform, samplePhase(i, tableLength, cycles, span), samplesPerCycle(tableLength, cycles)), dac);
+  const played = tableWaveform(waveform, tableLength, cycles, span);
+  return voltageToCode(waveVolts(played, samplePhase(i, tableLength, cycles, span), samplesPerCycle(tableLength, cycles)), dac);
 }
 
 /** The table of DAC codes, clamped to the DAC's range (see clippedSamples). */
@@ -91,7 +106,9 @@ export function buildTable(
 ): Int32Array {
   const n = Math.max(0, Math.floor(tableLength));
   const table = new Int32Array(n);
-  for (let i = 0; i < n; i++) table[i] = sampleCode(waveform, dac, i, n, cycles, span);
+  const played = tableWaveform(waveform, n, cycles, span);
+  const s = samplesPerCycle(n, cycles);
+  for (let i = 0; i < n; i++) table[i] = voltageToCode(waveVolts(played, samplePhase(i, n, cycles, span), s), dac);
   return table;
 }
 

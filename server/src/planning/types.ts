@@ -116,6 +116,14 @@ export interface PlanFigures extends Plan {
   jitter: Jitter;
   seam: Seam;
   tableBytes: number;
+  /** Square waves: the duty asked for and the duty the table really has (planning/duty.ts); null for other shapes. */
+  dutyAsked?: Rational | null;
+  dutyAchieved?: Rational | null;
+  /**
+   * Edges and corners (every shape but the sine): how far they wander from cycle to cycle, in
+   * seconds — 0 with a whole number of samples per cycle; null for a sine.
+   */
+  edgeWanderS?: number | null;
 }
 
 /** The signal an output's table holds. Voltages in volts. */
@@ -123,6 +131,8 @@ export interface Waveform {
   shape: Shape;
   /** Share of the cycle a square wave spends high, 0 < duty < 1; ignored by other shapes. */
   duty: number;
+  /** The same duty exactly, as written (the table rounds its high samples from it). */
+  dutyExact?: Rational;
   amplitudeVpp: number;
   offsetV: number;
   /** A table that is not the plain shape: a sum of harmonics or a sample file's cycle. */
@@ -187,4 +197,10 @@ export interface OutputPlanning {
   withinTolerance: boolean;
   /** Set when the board's memory budget made the output take `plan` instead of this, its own plan. */
   shrunkFrom?: PlanFigures;
+  /**
+   * Set for a square whose plan (within the frequency tolerance, whole S) misses the asked duty by
+   * more than duty-tolerance: the plan within tolerance with the nearest duty, and the nearest
+   * plan that holds the duty exactly (null when none exists).
+   */
+  dutyMiss?: { nearestDuty: PlanFigures | null; exactDuty: PlanFigures | null };
 }

@@ -336,3 +336,48 @@ function dutyAlwaysFrom(duty: { asked: Rational; tolerance: Rational }): number 
   if (!(t > 0)) return Infinity;
   return Math.ceil(Math.max(1 / (2 * t), 1 / (2 * Math.min(d, 1 - d)))) + 1;
 }
+
+/** What a warning about a square's duty names: the nearest duty within tolerance and the nearest exact-duty plan. */
+export interface DutyAlternatives {
+  /** The plan within the frequency tolerance whose duty is nearest the asked one (ties: the smaller error). */
+  nearestDuty: Plan | null;
+  /** The nearest plan (any error) whose S holds the asked duty exactly. */
+  exactDuty: Plan | null;
+}
+
+/**
+ * Plans for the duty warning. The S that can meet the frequency tolerance lie between
+ * C/(J max·(f + tol)) and C/(J min·(f − tol)); those are walked (at most WHOLE_BUDGET of them). An
+ * exact duty p/q needs S a multiple of q.
+ */
+export function dutyAlternatives(hw: Hardware, req: PlanRequest, fractional: boolean, pref: Preference): DutyAlternatives {
+  const ctx = context(hw, req, fractional);
+  const duty = pref.duty;
+  if (ctx === null || duty === null) return { nearestDuty: null, exactDuty: null };
+  const q = Number(duty.asked.den);
+  const exact = q <= ctx.nMax ? nearestPlans(ctx, { from: 1, to: Infinity, admit: (s) => s % q === 0 }).plans : [];
+  const tol = toNumber(pref.toleranceHz);
+  const { C, T } = ctx;
+  const from = Math.max(ctx.sLo, Math.floor(C / (ctx.jHi * (T + tol))));
+  const to = Math.min(ctx.nMax, T > tol ? Math.ceil(C / (ctx.jLo * (T - tol))) : ctx.nMax);
+  const asked = toNumber(duty.asked);
+  let best: { plan: Plan; off: number } | null = null;
+  const budget = new WorkBudget(WHOLE_BUDGET);
+  for (let s = from; s <= to && budget.take(); s = nextS(ctx, s)) {
+    const n = shortestTable(ctx, s);
+    if (n === 0) continue;
+    const off = Math.abs(highSamplesOf(asked, s) / s - asked);
+    if (best !== null && off > best.off + 1e-12) continue;
+    const ideal = C / (T * s);
+    for (const raw of [Math.floor(ideal), Math.floor(ideal) + 1]) {
+      const j = Math.min(ctx.jHi, Math.max(ctx.jLo, raw));
+      const plan = toPlan(ctx, { j, s, n });
+      if (!withinTolerance(plan, pref)) continue;
+      if (best === null || off < best.off - 1e-12 || cmp(abs(plan.errorHz), abs(best.plan.errorHz)) < 0) best = { plan, off };
+    }
+  }
+  return { nearestDuty: best?.plan ?? null, exactDuty: bestRanked(exact, NEUTRAL(req), fractional) };
+}
+
+/** H for a duty in doubles (messages only; the exact rule is duty.ts's). */
+const highSamplesOf = (duty: number, s: number): number => (s < 2 ? s : Math.min(Math.max(Math.floor(duty * s + 0.5), 1), s - 1));

@@ -142,6 +142,11 @@ export const CODES = {
     title: 'Fractional divider chosen',
     help: 'Only a fractional divider meets the tolerance. Its sample periods alternate between I and I+1 system clocks, which adds divider jitter; the message names its RMS and peak-to-peak time-interval error.',
   },
+  'duty-missed': {
+    severity: 'warning',
+    title: 'Square-wave duty not held',
+    help: 'With a whole number S of samples per cycle a square is high for a whole number of samples, so its duty is a multiple of 1/S. No plan within the frequency tolerance holds the asked duty within duty-tolerance; the message names the duty the plan gives, the nearest duty within the tolerance and the nearest plan that holds the duty exactly. Widen duty-tolerance or the frequency tolerance, pin a plan, or accept the duty.',
+  },
   'search-limit': {
     severity: 'warning',
     title: 'Plan search stopped at its work limit',

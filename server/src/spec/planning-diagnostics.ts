@@ -2,8 +2,8 @@
 // its jitter, no plan at all, a broken seam, samples per cycle, a table over the budget.
 
 import { NYQUIST_SAMPLES_PER_CYCLE } from '../../../shared-schema/src/defaults';
-import { formatBytes, formatHz, formatLsb, formatPpm, formatSeconds } from '../../../shared-schema/src/quantity-format';
-import { type Rational, cmp, div, isInteger, rat, toDecimal } from '../../../shared-schema/src/rational';
+import { formatBytes, formatHz, formatLsb, formatPpm, formatSeconds, significantText } from '../../../shared-schema/src/quantity-format';
+import { type Rational, cmp, div, isInteger, mul, rat, toDecimal } from '../../../shared-schema/src/rational';
 import type { Hardware, OutputPlanning, PlanFigures } from '../planning/types';
 import { clockAccuracyDiagnostic, clockBudgetText } from './clock-budget';
 import { type Code } from './codes';
@@ -18,6 +18,19 @@ export function dividerText(p: { dividerInteger: number; dividerFraction: number
 }
 
 const ratText = (r: Rational): string => (isInteger(r) ? r.num.toString() : toDecimal(r, 6));
+
+/** A duty as a percentage with four significant digits: 13/25 → "52 %". */
+export const dutyText = (d: Rational): string => `${significantText(mul(d, rat(100)), 4)} %`;
+
+/**
+ * A square's duty as the table plays it, with the asked one when they differ: "52 % duty
+ * (50 % asked)", "50 % duty"; null for other shapes (the reports and the export quote it).
+ */
+export function dutyPhrase(p: PlanFigures): string | null {
+  if (!p.dutyAchieved || !p.dutyAsked) return null;
+  const asked = cmp(p.dutyAchieved, p.dutyAsked) === 0 ? '' : ` (${dutyText(p.dutyAsked)} asked)`;
+  return `${dutyText(p.dutyAchieved)} duty${asked}`;
+}
 
 /** "divider 3, 500 samples, 1 cycle → 100 kHz (0 ppm)". */
 export function planText(p: PlanFigures): string {
@@ -59,6 +72,19 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
     const why = pinned ? 'The pinned divider is fractional' : `Only a fractional divider meets ±${toleranceText}`;
     const fix = pinned ? 'accept it or pin a whole divider' : 'accept it, or widen the tolerance for a jitter-free plan';
     push('fractional-plan', pinned ? planRange('divider') : (r.jitter ?? r.frequency ?? draft.nameRange), `${why}: ${planText(plan)} with ${jitterText(plan)} — ${fix}.`);
+  }
+
+  const dutyMiss = planning.dutyMiss;
+  if (dutyMiss && plan.dutyAchieved && plan.dutyAsked && draft.request.duty) {
+    const s = div(rat(BigInt(plan.tableLength)), plan.cycles);
+    const high = mul(plan.dutyAchieved, s);
+    const tol = draft.request.duty.tolerance;
+    const near = dutyMiss.nearestDuty;
+    const nearText = near && near.dutyAchieved && !sameDivider(near, plan) ? `; the nearest duty within ±${toleranceText} is ${dutyText(near.dutyAchieved)} with ${planText(near)}` : '';
+    const exact = dutyMiss.exactDuty;
+    const exactText = exact ? `; ${planText(exact)} holds ${dutyText(plan.dutyAsked)} exactly` : `; no plan on this clock holds ${dutyText(plan.dutyAsked)} exactly`;
+    const fix = pinned ? 'pin a table whose samples per cycle hold the duty, or widen duty-tolerance' : 'widen duty-tolerance or the frequency tolerance, or accept the duty';
+    push('duty-missed', pinned ? planRange('table-length') : (r.duty ?? draft.nameRange), `${ratText(s)} samples per cycle give ${dutyText(plan.dutyAchieved)} duty (${ratText(high)} high), not ${dutyText(plan.dutyAsked)} within ±${dutyText(tol)}, and no plan within ±${toleranceText} holds it${nearText}${exactText}: ${fix}.`);
   }
 
   if (plan.searchLimited) {

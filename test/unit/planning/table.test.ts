@@ -2,7 +2,8 @@
 
 import { describe, expect, it } from 'vitest';
 import { fft } from 'mathjs';
-import { rat } from '../../../shared-schema/src/rational';
+import { type Rational, rat } from '../../../shared-schema/src/rational';
+import { edgeWanderSamples, highSamples, tableDuty } from '../../../server/src/planning/duty';
 import { buildTable, clippedSamples, unitWave, voltageToCode } from '../../../server/src/planning/table';
 import { seamCheck } from '../../../server/src/planning/seam';
 import type { Hardware, Shape, Waveform } from '../../../server/src/planning/types';
@@ -98,5 +99,31 @@ describe('seam at the table wrap', () => {
     // First = last = code(1.65 V) = 2048; a continuous phase would play phase 64/63 next:
     // 1.65 + 1.5·sin(2π/63) = 1.79935 V → round(1.79935/0.000805664) = 2233.
     expect(seamCheck(wave('sine'), dac12, 64, rat(1), 'closed')).toEqual({ ok: false, jumpLsb: 185, cause: 'repeated-sample' });
+  });
+});
+
+describe('the duty a square table really has (derived: H = the whole number nearest duty·S, halves up)', () => {
+  const dac = { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: rat(1_000_000) };
+  const square = (duty: Rational) => ({ shape: 'square' as const, duty: Number(duty.num) / Number(duty.den), dutyExact: duty, amplitudeVpp: 3, offsetV: 1.65 });
+  const highOf = (table: Int32Array): number => table.filter((c) => c > 2048).length;
+
+  it('25 samples per cycle at 50 %: 13 high, 52 %; 29 at 30 %: 9 high, 31.03 % — the table and the report agree', () => {
+    for (const [duty, s, m, high] of [[rat(1, 2), 25, 1, 13], [rat(3, 10), 29, 1, 9], [rat(1, 2), 25, 4, 13], [rat(1, 4), 16, 2, 4], [rat(3, 10), 5, 1, 2]] as const) {
+      const table = buildTable(square(duty), dac, s * m, rat(m), 'open');
+      expect(highOf(table), `${s} × ${m} at ${duty.num}/${duty.den}`).toBe(high * m);
+      expect(tableDuty(duty, s * m, rat(m), 'open')).toEqual(rat(high, s));
+      expect(highSamples(duty, s)).toBe(high);
+    }
+  });
+
+  it('with S not whole the report counts the table\'s own high samples, and the edges wander by (M − gcd(N, M))/M samples (derived)', () => {
+    for (const [n, m] of [[100, 3], [250, 7], [64, 6]] as const) {
+      const duty = rat(1, 2);
+      const table = buildTable(square(duty), dac, n, rat(m), 'open');
+      expect(tableDuty(duty, n, rat(m), 'open')).toEqual(rat(highOf(table), n));
+    }
+    expect(edgeWanderSamples(100, rat(3))).toBeCloseTo(2 / 3, 12);
+    expect(edgeWanderSamples(64, rat(6))).toBeCloseTo(4 / 6, 12);
+    expect(edgeWanderSamples(75, rat(3))).toBe(0);
   });
 });
