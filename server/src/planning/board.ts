@@ -10,7 +10,8 @@
 // only grow with the share asked and only fall with the error allowed, so the best value is the
 // largest (smallest) one whose total still fits, found by bisection.
 
-import { type Rational, cmp, div, mul, rat } from '../../../shared-schema/src/rational';
+import { type Rational, cmp, div, mul, neg, rat, toNumber } from '../../../shared-schema/src/rational';
+import { type Ladder, firstExact, largestFeasible } from './ladder';
 import { type Preference, bestRanked } from './ranking';
 import type { MenuPlan, ShrinkMenu } from './shrink';
 import type { Plan } from './types';
@@ -50,18 +51,6 @@ const shareOf = (menu: ShrinkMenu, p: MenuPlan): Rational => {
   return cmp(share, ONE) > 0 ? ONE : share;
 };
 
-/** The largest index i in [lo, hi] with ok(i), given ok is true up to some index and false after; lo − 1 when none. */
-function lastTrue(lo: number, hi: number, ok: (i: number) => boolean): number {
-  let a = lo - 1;
-  let b = hi + 1;
-  while (b - a > 1) {
-    const mid = (a + b) >> 1;
-    if (ok(mid)) a = mid;
-    else b = mid;
-  }
-  return a;
-}
-
 export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): BoardFit {
   const own = outputs.reduce((t, o) => t + o.bytes, 0);
   const keep = outputs.map(() => null);
@@ -76,19 +65,26 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
     return { over: true, fits: false, plans: keep, totalBytes: own, leastBytes: least, minShare: null, worstErrorShare: null, complete: complete() };
   }
 
-  // 1. The smallest share: every value a frontier point offers, ascending.
-  const shares: Rational[][] = frontiers.map((f, i) => f.map((p) => shareOf(menus[i]!, p)));
-  const values = uniqueSorted(shares.flat());
-  /** Fewest bytes of output i with share ≥ σ (its frontier rises in share). */
-  const minIndex = (i: number, sigma: Rational): number => shares[i]!.findIndex((s) => cmp(s, sigma) >= 0);
-  const totalAt = (sigma: Rational): number =>
-    fixed + frontiers.reduce((t, f, i) => (f.length === 0 ? t : t + bytesOf(i, f[minIndex(i, sigma)]!.n)), 0);
-  const best = lastTrue(0, values.length - 1, (k) => totalAt(values[k]!) <= budgetBytes);
-  const sigma = values[best]!;
+  // 1. The smallest share: each frontier rises in share (and in bytes).
+  const shareLadder = (i: number): Ladder => {
+    const f = frontiers[i]!;
+    const ref = toNumber(menus[i]!.sRef);
+    return {
+      approx: Float64Array.from(f, (p) => Math.min(1, p.n / p.m / ref)),
+      exact: (k) => shareOf(menus[i]!, f[k]!),
+      bytes: (k) => bytesOf(i, f[k]!.n),
+    };
+  };
+  const live = menus.flatMap((m, i) => (m === null ? [] : [i]));
+  const shareLadders = new Map(live.map((i) => [i, shareLadder(i)] as const));
+  const sigma = largestFeasible([...shareLadders.values()], fixed, budgetBytes)!;
+  const sigmaF = toNumber(sigma);
+  const startIndex = (i: number): number => firstExact(shareLadders.get(i)!, sigma, sigmaF);
 
-  // 2. The largest error share, with every output at S ≥ σ·S_own.
+  // 2. The largest error share, with every output at S ≥ σ·S_own: each staircase falls in error
+  // share as its bytes rise, so minus the share rises.
   const floors = menus.map((m) => (m === null ? null : mul(sigma, m.sRef)));
-  const starts = frontiers.map((f, i) => (menus[i] === null ? null : f[minIndex(i, sigma)]!));
+  const starts = menus.map((m, i) => (m === null ? null : frontiers[i]![startIndex(i)]!));
   const atSigma = starts.reduce((t, p, i) => (p === null ? t : t + bytesOf(i, p.n)), fixed);
   // No output may take more than the room the others leave at their fewest bytes for σ.
   const stairs = menus.map((m, i) => {
@@ -96,28 +92,23 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
     const room = Math.floor((budgetBytes - atSigma) / m.sampleBytes) + starts[i]!.n;
     return m.staircase(floors[i]!, starts[i]!, room);
   });
-  const errorValues = uniqueSorted(stairs.flat().map((s) => s.share));
-  /** Fewest bytes of output i with error share ≤ ρ (its staircase falls in error share). */
-  const stairIndex = (i: number, rho: Rational): number => stairs[i]!.findIndex((s) => cmp(s.share, rho) <= 0);
-  const fitsAt = (rho: Rational): boolean => {
-    let total = fixed;
-    for (let i = 0; i < outputs.length; i++) {
-      if (menus[i] === null) continue;
-      const k = stairIndex(i, rho);
-      if (k < 0) return false;
-      total += bytesOf(i, stairs[i]![k]!.plan.n);
-    }
-    return total <= budgetBytes;
-  };
-  // Feasible for every ρ from some value up: the first feasible value, by bisection on its complement.
-  const rhoIndex = lastTrue(0, errorValues.length - 1, (k) => !fitsAt(errorValues[k]!)) + 1;
-  const rho = errorValues[rhoIndex]!;
+  const errorLadders = new Map(live.map((i) => {
+    const st = stairs[i]!;
+    const ladder: Ladder = {
+      approx: Float64Array.from(st, (x) => -toNumber(x.share)),
+      exact: (k) => neg(st[k]!.share),
+      bytes: (k) => bytesOf(i, st[k]!.plan.n),
+    };
+    return [i, ladder] as const;
+  }));
+  const rho = neg(largestFeasible([...errorLadders.values()], fixed, budgetBytes)!);
+  const rhoF = toNumber(rho);
 
   // 3. Per output the fewest bytes at (σ, ρ), its ranking deciding between plans of that length.
   let total = fixed;
   const plans = menus.map((m, i) => {
     if (m === null) return null;
-    const n = stairs[i]![stairIndex(i, rho)]!.plan.n;
+    const n = stairs[i]![firstExact(errorLadders.get(i)!, neg(rho), -rhoF)]!.plan.n;
     total += bytesOf(i, n);
     const chosen = bestRanked(m.plansAt(n, floors[i]!, rho), outputs[i]!.pref, m.fractional);
     return chosen !== null && sameTable(chosen, m.own) ? null : chosen;
@@ -128,7 +119,3 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
 const sameTable = (a: Plan, b: Plan): boolean =>
   a.dividerInteger === b.dividerInteger && a.dividerFraction === b.dividerFraction && a.tableLength === b.tableLength && cmp(a.cycles, b.cycles) === 0;
 
-function uniqueSorted(xs: Rational[]): Rational[] {
-  const sorted = [...xs].sort(cmp);
-  return sorted.filter((x, i) => i === 0 || cmp(x, sorted[i - 1]!) !== 0);
-}

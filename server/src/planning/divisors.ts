@@ -93,6 +93,9 @@ export function divisorsInRange(k: number, lo: number, hi: number, out: number[]
 function factorBelow(k: number, hi: number): void {
   factorPrimes.length = 0;
   factorPowers.length = 0;
+  // Past the prime table's reach, trial division by 2, 3 and the numbers 6t ± 1 (a few tens of
+  // milliseconds at most for k < 2^52): it keeps the table, and so the memory, bounded.
+  if (Math.min(hi, Math.sqrt(k)) > DIVISOR_REACH) return factorByWheel(k, hi);
   const table = primesUpTo(Math.min(hi, Math.ceil(Math.sqrt(k))));
   const inverse = reciprocals;
   // For p | rest, rest·(1/p) misses rest/p by under rest·2^-52/p, so below 2^50 a miss of
@@ -117,6 +120,30 @@ function factorBelow(k: number, hi: number): void {
     factorPowers.push(e);
   }
   // The walk stopped at a prime above √rest (or ran past √k): what remains is 1 or a prime.
+  if (rest > 1 && rest <= hi) {
+    factorPrimes.push(rest);
+    factorPowers.push(1);
+  }
+}
+
+function factorByWheel(k: number, hi: number): void {
+  let rest = k;
+  const take = (p: number): void => {
+    if (!divides(rest, p)) return;
+    let e = 0;
+    do {
+      rest /= p;
+      e++;
+    } while (divides(rest, p));
+    factorPrimes.push(p);
+    factorPowers.push(e);
+  };
+  take(2);
+  take(3);
+  for (let p = 5; p <= hi && p * p <= rest; p += 6) {
+    take(p);
+    if (p + 2 <= hi) take(p + 2);
+  }
   if (rest > 1 && rest <= hi) {
     factorPrimes.push(rest);
     factorPowers.push(1);

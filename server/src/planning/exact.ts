@@ -11,18 +11,19 @@
 
 import { div, gcdNumber } from '../../../shared-schema/src/rational';
 import { type Domain, maxCycles } from './domain';
-import { DIVISOR_REACH, divisorsInRange } from './divisors';
+import { divisorsInRange } from './divisors';
 import type { Leader } from './rank';
 
 const divisorsOfB: number[] = [];
 
 /** Offers the best exact plans of the domain to the leader; true when there is one. */
 export function offerExactPlans(d: Domain, lead: Leader): boolean {
-  // Beyond the reach the walk finds the exact plans itself (and the cycles search stands down).
-  if (d.nMax > DIVISOR_REACH) return false;
   const r = div(d.target, d.clock);
   // b | J·N needs b ≤ J·N ≤ J max · N max; M = a·J·N/b ≥ a needs a ≤ the most cycles a table holds.
-  if (r.den > BigInt(d.jMax * d.nMax) || r.num > BigInt(maxCycles(d, d.nMax))) return false;
+  if (r.den > BigInt(d.jMax) * BigInt(d.nMax) || r.num > BigInt(maxCycles(d, d.nMax))) return false;
+  // The divisors of b are listed in doubles (divisors.ts): beyond 2^52 the walk finds the exact
+  // plans itself (and may stop at its limit).
+  if (r.den >= 2n ** 52n) return false;
   return offerPlansOfRatio(d, lead, Number(r.num), Number(r.den));
 }
 
@@ -53,7 +54,8 @@ export function offerPlansOfRatio(d: Domain, lead: Leader, a: number, b: number)
     if (d.dividers !== null) stagesHi = j;
     // The shortest table for this J: a multiple of b/gcd(b, J), which divides n.
     const len = lengthMultiple(d, b / gcdNumber(b, j));
-    const m = a * ((j * len) / b);
+    // b divides J·N; past 2^53 the quotient is taken in bigints.
+    const m = j * len < 2 ** 53 ? a * ((j * len) / b) : Number(BigInt(a) * ((BigInt(j) * BigInt(len)) / BigInt(b)));
     if (m < 1 || m > maxCycles(d, len)) continue;
     lead.offer(j, len, m);
     found = true;

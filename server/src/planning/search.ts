@@ -72,8 +72,10 @@ function achieved(d: Domain, c: Candidate): Rational {
 
 function toPlan(hw: Hardware, d: Domain, c: Candidate, complete: boolean): Plan {
   const achievedHz = achieved(d, c);
+  // Nothing is nearer than an exact plan: it is the nearest whether or not the search finished.
+  const proven = complete || sub(achievedHz, d.target).num === 0n;
   return {
-    ...(complete ? {} : { searchLimited: true }),
+    ...(proven ? {} : { searchLimited: true }),
     dividerInteger: Math.floor(c.j / d.scale),
     dividerFraction: c.j % d.scale,
     fractionBits: hw.divider.fractionBits,

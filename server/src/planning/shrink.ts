@@ -17,8 +17,8 @@ import { realisesDutyAt } from './duty';
 import { type Preference, samplesPerCycle, withinTolerance } from './ranking';
 import type { Hardware, Plan } from './types';
 
-/** (N, M) checks one scan may make: about ten milliseconds. */
-export const SHRINK_BUDGET = 1 << 19;
+/** Table lengths and (N, M) checks one scan may make: a few milliseconds. */
+export const SHRINK_BUDGET = 1 << 18;
 
 /** One plan of the menu, by its table length, cycles and best divider (in 1/2^k steps when fractional). */
 export interface MenuPlan {
@@ -36,7 +36,8 @@ export class ShrinkMenu {
   complete = true;
   /** The menu holds fractional dividers (the own plan's kind). */
   readonly fractional: boolean;
-  private readonly lengths: number[];
+  private readonly nMin: number;
+  private readonly powerOfTwo: boolean;
   private readonly scale: number;
   private readonly clock: Rational;
   private readonly C: number;
@@ -76,13 +77,9 @@ export class ShrinkMenu {
     this.sRef = samplesPerCycle(own);
     this.nRef = own.tableLength;
     this.sampleBytes = hw.dac.sampleBytes;
-    const lengths: number[] = [];
-    const nMin = Math.max(1, hw.memory.tableLengthMin);
-    for (let n = nMin; n <= this.nRef; n++) {
-      if (hw.memory.powerOfTwo && (n & (n - 1)) !== 0) continue;
-      lengths.push(n);
-    }
-    this.lengths = lengths;
+    this.nMin = Math.max(1, hw.memory.tableLengthMin);
+    if (hw.memory.powerOfTwo) this.nMin = 2 ** Math.ceil(Math.log2(this.nMin));
+    this.powerOfTwo = hw.memory.powerOfTwo;
   }
 
   /** The exact plan of a menu entry. */
@@ -97,6 +94,11 @@ export class ShrinkMenu {
       achievedHz,
       errorHz: sub(achievedHz, this.targetHz),
     };
+  }
+
+  /** The allowed table length after n (powers of two only when the clock asks for them). */
+  private next(n: number): number {
+    return this.powerOfTwo ? 2 * n : n + 1;
   }
 
   /** The output's own plan as a menu entry. */
@@ -146,7 +148,9 @@ export class ShrinkMenu {
     const slot = { j: 0, err: 0 };
     let bestN = 0, bestM = 1; // largest S so far = bestN / bestM (0 = none)
     let steps = SHRINK_BUDGET;
-    for (const n of this.lengths) {
+    for (let n = this.nMin; n <= this.nRef; n = this.next(n)) {
+      // Every length counts, whether or not a cycle count is tried at it.
+      if (--steps < 0) break;
       for (let m = 1; n * bestM > bestN * m; m++) {
         if (--steps < 0) break;
         if (!this.admissible(n, m)) {
@@ -189,9 +193,9 @@ export class ShrinkMenu {
     let least = toNumber(leastExact);
     out.push({ plan: start, share: shareOf(leastExact) });
     let steps = SHRINK_BUDGET;
-    for (const n of this.lengths) {
+    for (let n = start.n; n <= this.nRef; n = this.next(n)) {
+      if (--steps < 0) break;
       if (n > nLimit || leastExact.num === 0n) break;
-      if (n < start.n) continue;
       for (let m = 1; n >= m * sF * (1 - 1e-12); m++) {
         if (--steps < 0) break;
         if (n < m * sF * (1 + 1e-12) && cmp(rat(n, m), sMin) < 0) break;

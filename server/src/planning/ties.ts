@@ -10,7 +10,7 @@
 // since any plan's N can be shortened to its class's shortest without losing a divider.
 
 import { type Rational, div, gcdNumber, rat } from '../../../shared-schema/src/rational';
-import { DIVISOR_REACH, divisorsInRange } from './divisors';
+import { divisorsInRange } from './divisors';
 import { type Domain, achievedHz, maxCycles } from './domain';
 import { lengthMultiple, quietestMultiple } from './exact';
 import { type Preference, bestRanked, frequenciesAt } from './ranking';
@@ -28,7 +28,7 @@ export function bestAtError(d: Domain, e: Rational, pref: Preference, fractionBi
     const r = div(f, d.clock);
     if (r.num <= 0n) continue;
     if (r.den > BigInt(d.jMax) * BigInt(d.nMax)) continue;
-    if (d.nMax > DIVISOR_REACH || r.den >= 2n ** 52n || r.num >= 2n ** 52n) return { ...fallback, searchLimited: true };
+    if (r.den >= 2n ** 52n || r.num >= 2n ** 52n) return { ...fallback, searchLimited: true };
     plansOfRatio(d, Number(r.num), Number(r.den), pref, fractionBits, plans);
   }
   const fractional = d.mode === 'fractional';

@@ -191,7 +191,9 @@ function walkPlans(ctx: Context, from: number, to: number, admit: (s: number) =>
   let least = abs(plans[0]!.errorHz);
   for (const p of plans) if (cmp(abs(p.errorHz), least) < 0) least = abs(p.errorHz);
   const at = plans.filter((p) => cmp(abs(p.errorHz), least) === 0);
-  return { plans: budget.spent ? at.map(limited) : at, complete: !budget.spent };
+  // Nothing is nearer than an exact plan, finished or not.
+  const proven = !budget.spent || least.num === 0n;
+  return { plans: proven ? at : at.map(limited), complete: proven };
 }
 
 /**

@@ -21,7 +21,8 @@ import { planText, planningDiagnostics } from './planning-diagnostics';
 import { diagnostic } from './source';
 import type { Analysis, OutputAnalysis, Range, SpecDiagnostic } from './types';
 
-const menus = new Memo<string, ShrinkMenu | null>(1000);
+// Menus hold their frontier (one entry per table length where S rises): a small memo bounds the memory.
+const menus = new Memo<string, ShrinkMenu | null>(64);
 
 /** The output can take a smaller plan: planned within tolerance by the engine, not pinned. */
 const shrinkable = (o: OutputAnalysis): boolean =>
