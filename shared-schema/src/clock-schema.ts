@@ -3,6 +3,7 @@
 
 import { z } from 'zod';
 import { DEFAULT_FRACTION_BITS, DEFAULT_POWER_OF_TWO, DEFAULT_REGISTER_OFFSET } from './defaults';
+import { MIN_FREQUENCY_HZ } from './quantity';
 import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
 import { clockTreeKeys } from './clock-tree-schema';
 
@@ -33,7 +34,7 @@ const stageSchema = z.strictObject({
   ),
 }).describe('One counter stage: the range of values it divides by and how its register holds the value.');
 
-const frequency = () => quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ });
+const frequency = () => quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_FREQUENCY_HZ });
 
 export const clockSchema = z
   .strictObject({

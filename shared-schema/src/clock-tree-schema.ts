@@ -4,6 +4,7 @@
 // the divider and the analog chain grow beside it without touching it.
 
 import { z } from 'zod';
+import { MIN_FREQUENCY_HZ } from './quantity';
 import { optional, quantity, required, whole } from './schema-kit';
 
 /** Enough for any microcontroller or FPGA PLL; the enumeration's cost is bounded separately. */
@@ -17,7 +18,7 @@ export const PERIPHERAL_NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_-]{0,63}$/;
 
 /** The same bound as clockSchema's frequencies (not imported: clockSchema imports this file). */
 const MAX_HZ = 1e11;
-const frequency = () => quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_HZ });
+const frequency = () => quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_HZ });
 
 const frequencyRange = (what: string) =>
   z.strictObject({

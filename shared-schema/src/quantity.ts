@@ -1,7 +1,7 @@
 // Quantities as engineers write them ("125 MHz", "50 ppm", "64 KiB", "2 Vpp") parsed exactly from
 // their decimal text into Rationals in base units. Units are case-exact: MHz and mHz differ.
 
-import { type Rational, mul, parseDecimal, rat, isInteger } from './rational';
+import { type Rational, abs, cmp, mul, parseDecimal, rat, isInteger } from './rational';
 import { didYouMean } from './did-you-mean';
 
 export type QuantityKind = 'frequency' | 'tolerance' | 'bytes' | 'voltage' | 'voltage-pp' | 'duty' | 'number';
@@ -67,6 +67,30 @@ const ALL_UNITS = [...new Set(Object.values(KINDS).flatMap((k) => k.units.map((d
 export type QuantityResult =
   | { ok: true; value: Rational; unit: string; base: BaseUnit }
   | { ok: false; code: 'bad-unit' | 'bad-quantity'; message: string };
+
+/**
+ * The smallest frequency any key takes, 1 µHz (a period of about 11.6 days). Below it the
+ * figures derived in floating point — the error in ppm, the period, the jitter — stop being
+ * meaningful or finite long before the exact rationals would notice.
+ */
+export const MIN_FREQUENCY_HZ = 1e-6;
+
+/**
+ * Whatever a key's own bounds, a non-zero value must lie within this window of magnitudes in
+ * base units (hertz, bytes, volts, a ratio, a plain number): every figure derived from it then
+ * stays a finite, non-zero double (doubles reach about 1e-308 to 1e308), so no view shows
+ * "Infinity", "null" or a division by zero.
+ */
+export const MAGNITUDE = { min: rat(1n, 10n ** 12n), max: rat(10n ** 15n), text: '1e-12 and 1e15' } as const;
+
+/** Why a value of this kind lies outside MAGNITUDE (completes "… must be …"), or null. */
+export function magnitudeProblem(kind: QuantityKind, value: Rational, base: BaseUnit): string | null {
+  const size = abs(value);
+  if (size.num === 0n || (cmp(size, MAGNITUDE.min) >= 0 && cmp(size, MAGNITUDE.max) <= 0)) return null;
+  const unit = base === '' || base === 'ratio' ? '' : ` ${base}`;
+  const which = cmp(size, MAGNITUDE.min) < 0 ? 'small' : 'large';
+  return `0 or between ${MAGNITUDE.text}${unit} in size (this is too ${which} to compute with), such as \`${quantityExample(kind)}\``;
+}
 
 const NUMBER = String.raw`[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?`;
 const SPLIT = new RegExp(`^(${NUMBER})\\s*(.*)$`, 's');

@@ -12,6 +12,7 @@ import {
   DEFAULT_TOLERANCE,
 } from './defaults';
 import { MAX_DIVIDER_INTEGER, MAX_FREQUENCY_HZ, MAX_TABLE_LENGTH } from './clock-schema';
+import { MIN_FREQUENCY_HZ } from './quantity';
 import { SHAPES } from './shape';
 import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
 
@@ -53,7 +54,7 @@ export const outputSchema = z.strictObject({
     DEFAULT_DUTY_TOLERANCE,
   ),
   frequency: required(
-    quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ }),
+    quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_FREQUENCY_HZ }),
     'f_target, the output frequency, e.g. `3.997802734375 MHz`; exact as written.',
   ),
   tolerance: optional(

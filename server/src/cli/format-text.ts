@@ -3,6 +3,7 @@
 // and CI log scrapers already turn into links), and a closing one-line summary.
 
 import type { Hardware, PlanFigures, Seam, Verdict } from '../planning/types';
+import { clockProblem } from '../spec/analyze';
 import type { Analysis, OutputAnalysis } from '../spec/types';
 import { sortedDiagnostics, tally, type CheckedFile, type Tally } from './checked';
 import { formatBytes, formatCycles, formatDivider, formatHz, formatPpm, formatSeconds, formatSignedHz } from './units';
@@ -82,7 +83,8 @@ function hardwareSummary(hw: Hardware): string {
 function fileHeader(file: CheckedFile, relative: (abs: string) => string): string {
   const a: Analysis = file.analysis;
   if (a.kind === 'clock') return `${file.path}  clock file${a.hardware ? ` — ${hardwareSummary(a.hardware)}` : ''}`;
-  const parts = [`${a.outputs.length} output${a.outputs.length === 1 ? '' : 's'}`];
+  const unplanned = clockProblem(a);
+  const parts = [unplanned ? `outputs not planned: ${unplanned}` : `${a.outputs.length} output${a.outputs.length === 1 ? '' : 's'}`];
   if (a.clockPath) parts.push(`clock ${relative(a.clockPath)}`);
   if (a.memory) parts.push(`tables ${formatBytes(a.memory.usedBytes)} of ${formatBytes(a.memory.budgetBytes)}`);
   return `${file.path}  wave spec — ${parts.join(', ')}`;

@@ -11,7 +11,7 @@ import { arrayBody, block, cDouble, cUnsigned, defines, lineComment, stageRows, 
 import type { OutputIdentifiers } from './identifiers';
 import { specPrefix } from './identifiers';
 import type { LoadedSpec } from './load';
-import type { ExportModel, ExportedOutput } from './model';
+import { ringAlignment, type ExportModel, type ExportedOutput } from './model';
 
 export interface CFile {
   name: string;
@@ -74,7 +74,14 @@ function outputComment(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
   ];
   if (o.clipped > 0)
     lines.push(`${o.clipLsb > 1 ? 'CLIPPED' : 'clipped'}: ${o.clipped} of ${p.tableLength} samples reach past the DAC's codes (by up to ${o.clipLsb} LSB) and sit at its rail`);
-  if (model.hardware.memory.powerOfTwo) lines.push(`DMA ring: aligned to ${p.tableBytes} bytes`);
+  if (model.hardware.memory.powerOfTwo) {
+    const align = ringAlignment(p.tableBytes);
+    lines.push(
+      align === p.tableBytes
+        ? `DMA ring: aligned to ${align} bytes`
+        : `DMA ring: NOT possible, ${p.tableBytes} bytes is not a power of two; aligned to ${align} bytes, the next one`,
+    );
+  }
   return block(lines);
 }
 
@@ -96,7 +103,7 @@ function outputDefines(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
     [`${u}_FREQUENCY_HZ`, cDouble(toNumber(p.achievedHz)), `exactly ${exactText(p.achievedHz)}`],
   ];
   rows.push(...stageRows(u, p.dividerStages));
-  if (model.hardware.memory.powerOfTwo) rows.push([`${u}_TABLE_ALIGN`, cUnsigned(p.tableBytes), 'bytes; the DMA ring wraps on it']);
+  if (model.hardware.memory.powerOfTwo) rows.push([`${u}_TABLE_ALIGN`, cUnsigned(ringAlignment(p.tableBytes)), 'bytes; the DMA ring wraps on it']);
   return defines(rows);
 }
 

@@ -10,6 +10,7 @@ import type { Hardware } from '../planning/types';
 import { jitterSvg, memorySvg, seamSvg, svgDataUri, waveformSvg } from '../render';
 import { escapeXml as esc } from '../render/svg';
 import { dutyPhrase } from '../spec/planning-diagnostics';
+import { clockProblem } from '../spec/analyze';
 import type { OutputAnalysis } from '../spec/types';
 import { REPORT_CSS } from './html-style';
 import type { LoadedSpec } from './load';
@@ -119,7 +120,7 @@ function specSection(i: number, spec: LoadedSpec): string {
   parts.push(
     '<h3>Plans</h3>',
     a.outputs.length === 0
-      ? '<p class="none">No outputs.</p>'
+      ? `<p class="none">${esc(clockProblem(a) ? `No outputs planned: ${clockProblem(a)}.` : 'No outputs.')}</p>`
       : `<div class="scroll"><table class="plans"><thead><tr>${['output', 'verdict', 'target', 'achieved', 'error', 'divider', 'f_s', 'N × M', 'TIE', 'seam', 'bytes'].map((h) => `<th>${h}</th>`).join('')}</tr></thead><tbody>${a.outputs.map((o) => planRow(i, o)).join('')}</tbody></table></div>`,
     '<h3>Findings</h3>',
     findings(spec),

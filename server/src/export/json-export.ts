@@ -6,7 +6,7 @@ import { exactText, planJson } from '../cli/format-json';
 import { sampleType } from './c-export';
 import type { OutputIdentifiers } from './identifiers';
 import type { LoadedSpec } from './load';
-import type { ExportModel } from './model';
+import { ringAlignment, type ExportModel } from './model';
 import type { Waveform } from '../planning/types';
 
 export interface ExportedSpec {
@@ -45,7 +45,7 @@ export function exportJson(specs: readonly ExportedSpec[]): string {
         verdict: o.analysis.planning.verdict,
         tableSpan: o.span,
         plan: planJson(o.plan),
-        alignBytes: model.hardware.memory.powerOfTwo ? o.plan.tableBytes : null,
+        alignBytes: model.hardware.memory.powerOfTwo ? ringAlignment(o.plan.tableBytes) : null,
         clippedSamples: o.clipped,
         clippedByLsb: o.clipLsb,
         table: placeholder(o.codes),

@@ -2,7 +2,7 @@
 // engine's own buildTable (the same samples the pictures show), and how many samples the DAC
 // range clipped.
 
-import { buildTable, rawCode, samplePhase, waveVolts } from '../planning/table';
+import { buildTable, sampleRawCode } from '../planning/table';
 import type { Hardware, PlanFigures, TableSpan } from '../planning/types';
 import type { OutputAnalysis } from '../spec/types';
 import type { LoadedSpec } from './load';
@@ -23,6 +23,17 @@ export interface ExportModel {
   outputs: ExportedOutput[];
   /** Outputs with no plan at all (only possible in a spec with errors). */
   unplanned: string[];
+}
+
+/**
+ * The alignment of a table that feeds a DMA ring: its own size, which a ring needs to be a power
+ * of two. A forced export of a table that is not (the spec then has an error saying so) gets the
+ * next power of two, still a valid alignment, so the file builds and the ring's limit stays visible.
+ */
+export function ringAlignment(tableBytes: number): number {
+  let align = 1;
+  while (align < tableBytes) align *= 2;
+  return align;
 }
 
 export function spanOf(o: OutputAnalysis): TableSpan {
@@ -57,7 +68,7 @@ function clipping(o: OutputAnalysis, dac: Hardware['dac'], plan: PlanFigures, sp
   let clipped = 0;
   let clipLsb = 0;
   for (let i = 0; i < plan.tableLength; i++) {
-    const raw = rawCode(waveVolts(o.request.waveform, samplePhase(i, plan.tableLength, plan.cycles, span)), dac);
+    const raw = sampleRawCode(o.request.waveform, dac, i, plan.tableLength, plan.cycles, span);
     const excess = raw > top ? raw - top : raw < 0 ? -raw : 0;
     if (excess > 0) {
       clipped++;

@@ -18,7 +18,7 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
     dac.bits, dac.sampleBytes, dac.fullScaleV, q(dac.maxSampleRateHz),
     mem.budgetBytes, mem.tableLengthMin, mem.tableLengthMax, mem.powerOfTwo,
     q(req.targetHz), q(req.minSamplesPerCycle), q(req.toleranceHz), req.jitter, req.wholeSamplesPerCycle === true,
-    w.shape, w.duty, w.amplitudeVpp, w.offsetV, w.custom?.key ?? '-',
+    w.shape, w.duty, w.amplitudeVpp, w.offsetV, w.custom?.key ?? '-', w.exact ? `${q(w.exact.amplitudeVpp)},${q(w.exact.offsetV)}` : '-',
     req.maxSamplesPerCycle ? q(req.maxSamplesPerCycle) : '-',
     req.duty ? `${q(req.duty.asked)},${q(req.duty.tolerance)}` : '-',
     p ? [p.dividerInteger, p.dividerFraction, p.tableLength, q(p.cycles), p.span].join(',') : '-',

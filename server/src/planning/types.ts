@@ -137,6 +137,12 @@ export interface Waveform {
   offsetV: number;
   /** A table that is not the plain shape: a sum of harmonics or a sample file's cycle. */
   custom?: CustomWave;
+  /**
+   * The same amplitude and offset exactly as the spec gives them, so the rounding of a sample
+   * that falls exactly between two codes is decided exactly (table.ts); absent, the doubles above
+   * are read back as the decimals they print as.
+   */
+  exact?: { amplitudeVpp: Rational; offsetV: Rational };
 }
 
 /**

@@ -130,6 +130,18 @@ function overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, o
   fitToBudget(analysis, hardware, outputsKey, usedBytes);
 }
 
+/**
+ * Why a wave spec's outputs were not planned at all, when its clock file is the reason: words
+ * for summaries ("the clock file ./x.clock.yaml has errors"), so no summary reads "0 outputs"
+ * as if the spec were empty.
+ */
+export function clockProblem(analysis: Analysis): string | null {
+  const d = analysis.diagnostics.find((x) => x.code === 'clock-invalid' || x.code === 'clock-unreadable');
+  if (!d || analysis.hardware) return null;
+  const name = analysis.clockPath ? nodePath.basename(analysis.clockPath) : 'named by clock:';
+  return d.code === 'clock-invalid' ? `the clock file ${name} has errors` : `the clock file ${name} cannot be read`;
+}
+
 // A clock file's text gives one Hardware object while it stays in this memo, so the outputs
 // planned on it (output-cache.ts) are found again by that object.
 const clocks = new Memo<string, ReturnType<typeof readClock>>(32);

@@ -3,7 +3,7 @@
 
 import type { Document } from 'yaml';
 import { type FileKind, listKeys } from '../../../shared-schema/src/keys';
-import { type BaseUnit, parseQuantity, quantityExample } from '../../../shared-schema/src/quantity';
+import { type BaseUnit, magnitudeProblem, parseQuantity, quantityExample } from '../../../shared-schema/src/quantity';
 import { type Rational, cmp, fromNumber } from '../../../shared-schema/src/rational';
 import type { QuantityMeta } from '../../../shared-schema/src/schema-kit';
 import { formatBytes, formatHz } from '../../../shared-schema/src/quantity-format';
@@ -142,6 +142,9 @@ function readQuantity(kind: FileKind, doc: Document.Parsed, lines: LineIndex, pa
   if (!inBounds(parsed.value, bounds)) {
     return diagnostic('out-of-range', range, `${label} must be ${boundsText(bounds, parsed.base)}: change \`${text.trim()}\`.`, output);
   }
+  // Whatever the key's own bounds: a magnitude every derived figure can be computed with.
+  const size = magnitudeProblem(meta.kind, parsed.value, parsed.base);
+  if (size) return diagnostic('out-of-range', range, `${label} must be ${size}: change \`${text.trim()}\`.`, output);
   quantities.set(path, { value: parsed.value, base: parsed.base, unit: parsed.unit, text: text.trim() });
   return undefined;
 }

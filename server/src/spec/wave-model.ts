@@ -135,7 +135,7 @@ export function buildOutput(
     minSamplesPerCycle,
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
-    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset) },
+    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset } },
     toleranceHz: toleranceHz(tolerance, targetHz),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
     wholeSamplesPerCycle: entry['whole-samples-per-cycle'] ?? DEFAULT_WHOLE_SAMPLES_PER_CYCLE[shape],
