@@ -106,6 +106,40 @@ export const clockSchema = z
       }),
       'Limits on the sample tables.',
     ),
+    analog: optional(
+      z.strictObject({
+        gain: optional(
+          quantity({ kind: 'number', min: -1000, max: 1000 }),
+          "Voltage gain (V/V) of the amplifier after the DAC; the output's swing is gain × the DAC's.",
+          1,
+        ),
+        'slew-rate': optional(quantity({ kind: 'slew-rate', min: 0, minExclusive: true, max: 1e12 }), "The amplifier's slew rate, e.g. `10 V/µs`: a sine needs 2π·f·V_peak."),
+        'gain-bandwidth': optional(
+          quantity({ kind: 'frequency', min: 0, minExclusive: true, max: MAX_FREQUENCY_HZ }),
+          "The amplifier's gain-bandwidth product, e.g. `10 MHz`; its closed-loop bandwidth is this over the gain.",
+        ),
+        'output-swing': optional(
+          z.strictObject({
+            min: required(quantity({ kind: 'voltage', min: -1000, max: 1000 }), "Lowest voltage the amplifier's output reaches, e.g. `-12 V`."),
+            max: required(quantity({ kind: 'voltage', min: -1000, max: 1000 }), "Highest voltage the amplifier's output reaches, e.g. `12 V`."),
+          }),
+          "The amplifier's output range; the output is checked to stay inside it after the gain.",
+        ),
+        coupling: optional(
+          z.strictObject({
+            resistance: required(quantity({ kind: 'resistance', min: 0, minExclusive: true, max: 1e12 }), 'R of the AC coupling: the load resistance the capacitor feeds, e.g. `10 kΩ`.'),
+            capacitance: required(quantity({ kind: 'capacitance', min: 0, minExclusive: true, max: 1e3 }), 'C of the AC coupling, e.g. `100 µF`.'),
+          }),
+          'A series coupling capacitor into the load after the amplifier: a high-pass with corner 1/(2πRC), which tilts square waves.',
+        ),
+        load: optional(
+          z.enum(['line', 'transducer', 'power-stage', 'mains']),
+          '`line`: a signal input; `transducer`, `power-stage` or `mains` (mains-powered gear): the chain can hurt someone or something, so every output gets a caution that defers to the datasheet and qualified practice.',
+          'line',
+        ),
+      }),
+      'What follows the DAC: an amplifier (gain, slew rate, gain-bandwidth, output swing) and AC coupling. Checked for each output; never planned on.',
+    ),
   })
   .describe('A waveplan clock file: the system clock, the sample-clock divider, the DAC and the memory for tables.');
 

@@ -43,6 +43,8 @@ export const DEFAULT_REASONS = {
   } satisfies Record<Shape, string>,
   amplitude: "the DAC's full scale less one LSB, as Vpp, so the waveform spans codes 0 to 2^bits − 1 (the highest code is one LSB below full scale)",
   offset: 'half the default amplitude, so the default waveform just fits',
+  qualityFloor:
+    "one bit below the ideal quantiser of the clock file's DAC, 6.02·(bits − 1) + 1.76 dB (the ideal b-bit quantiser's SNR is 6.02·b + 1.76 dB, ADI MT-229)",
   maxSamplesPerCycle:
     "by shape, where neighbouring samples come within one LSB of each other (more samples only repeat DAC codes), with A the swing in LSB (amplitude / (full scale / 2^bits)): sine π / asin(1/A) ≈ π·A (its steepest step is A·sin(π/S)), triangle 2·A, sawtooth A; square 1/(2·duty-tolerance), the S that sets any duty to within duty-tolerance (none when it is 0); never below min-samples-per-cycle",
   dutyTolerance:

@@ -4,10 +4,21 @@
 import { type Rational, abs, cmp, mul, parseDecimal, rat, isInteger } from './rational';
 import { didYouMean } from './did-you-mean';
 
-export type QuantityKind = 'frequency' | 'tolerance' | 'bytes' | 'voltage' | 'voltage-pp' | 'duty' | 'number';
+export type QuantityKind =
+  | 'frequency'
+  | 'tolerance'
+  | 'bytes'
+  | 'voltage'
+  | 'voltage-pp'
+  | 'duty'
+  | 'number'
+  | 'decibel'
+  | 'resistance'
+  | 'capacitance'
+  | 'slew-rate';
 
 /** What a parsed value is measured in: hertz, bytes, volts, volts peak-to-peak, a pure ratio. */
-export type BaseUnit = 'Hz' | 'B' | 'V' | 'Vpp' | 'ratio' | '';
+export type BaseUnit = 'Hz' | 'B' | 'V' | 'Vpp' | 'ratio' | 'dB' | 'ohm' | 'F' | 'V/s' | '';
 
 interface UnitDef {
   unit: string;
@@ -52,6 +63,22 @@ const KINDS: Record<QuantityKind, KindDef> = {
   'voltage-pp': { what: 'a peak-to-peak voltage', units: [u('Vpp', 1n, 1n, 'Vpp'), u('mVpp', 1n, 1000n, 'Vpp')], plain: 'Vpp' },
   duty: { what: 'a duty cycle', units: [u('%', 1n, 100n, 'ratio')], plain: 'ratio' },
   number: { what: 'a number', units: [], plain: '' },
+  decibel: { what: 'a level in decibels', units: [u('dB', 1n, 1n, 'dB')], plain: 'dB' },
+  resistance: {
+    what: 'a resistance',
+    units: [u('Ω', 1n, 1n, 'ohm'), u('kΩ', 1000n, 1n, 'ohm'), u('MΩ', 1_000_000n, 1n, 'ohm'), u('\u2126', 1n, 1n, 'ohm'), u('k\u2126', 1000n, 1n, 'ohm'), u('ohm', 1n, 1n, 'ohm'), u('kohm', 1000n, 1n, 'ohm'), u('Mohm', 1_000_000n, 1n, 'ohm')],
+    plain: 'ohm',
+  },
+  capacitance: {
+    what: 'a capacitance',
+    units: [u('F', 1n, 1n, 'F'), u('mF', 1n, 1000n, 'F'), u('µF', 1n, 1_000_000n, 'F'), u('\u03bcF', 1n, 1_000_000n, 'F'), u('uF', 1n, 1_000_000n, 'F'), u('nF', 1n, 1_000_000_000n, 'F'), u('pF', 1n, 1_000_000_000_000n, 'F')],
+    plain: 'F',
+  },
+  'slew-rate': {
+    what: 'a slew rate',
+    units: [u('V/µs', 1_000_000n, 1n, 'V/s'), u('V/\u03bcs', 1_000_000n, 1n, 'V/s'), u('V/us', 1_000_000n, 1n, 'V/s'), u('V/ns', 1_000_000_000n, 1n, 'V/s'), u('V/ms', 1000n, 1n, 'V/s'), u('V/s', 1n, 1n, 'V/s')],
+    plain: 'V/s',
+  },
 };
 
 export const QUANTITY_KINDS = Object.keys(KINDS) as QuantityKind[];
@@ -124,6 +151,10 @@ export function quantityExample(kind: QuantityKind): string {
     'voltage-pp': '2 Vpp',
     duty: '50 %',
     number: '16',
+    decibel: '70 dB',
+    resistance: '10 kΩ',
+    capacitance: '100 µF',
+    'slew-rate': '10 V/µs',
   };
   return examples[kind];
 }

@@ -77,6 +77,21 @@ export const outputSchema = z.strictObject({
     'Plan only tables whose length is a multiple of their cycles (S = N/M whole), so every cycle is sampled at the same phases.',
     DEFAULT_REASONS.wholeSamplesPerCycle,
   ),
+  'band-limit': optional(
+    z.enum(['none', 'nyquist']),
+    "Square, triangle and sawtooth: `nyquist` fills the table with only the shape's harmonics below each plan's f_s/2 (scaled to the amplitude), so none folds back between them and every cycle looks alike even when S is not whole; `none` samples the ideal shape.",
+    'none',
+  ),
+  'min-snr': optionalDerived(
+    quantity({ kind: 'decibel', min: 0, max: 400 }),
+    "Signal-quality floor: the least SNR the output's stream may have, e.g. `70 dB`. Below it a warning names the cause (divider jitter, the table, quantisation) and a plan or change that would meet it.",
+    DEFAULT_REASONS.qualityFloor,
+  ),
+  'min-sfdr': optionalDerived(
+    quantity({ kind: 'decibel', min: 0, max: 400 }),
+    'Signal-quality floor: the least SFDR (the fundamental against the largest spur) the output may have, e.g. `70 dB`.',
+    DEFAULT_REASONS.qualityFloor,
+  ),
   jitter: optional(
     z.enum(['forbid', 'allow']),
     '`forbid`: integer dividers only, no divider jitter; `allow`: a fractional divider may be used when no integer one meets the tolerance.',

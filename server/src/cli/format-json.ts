@@ -3,9 +3,10 @@
 // recover the exact value: the full decimal when one exists ("3997802.734375"), else "num/den".
 
 import { isExactDecimal, toDecimal, toNumber, type Rational } from '../../../shared-schema/src/rational';
-import type { PlanFigures } from '../planning/types';
+import type { Hardware, PlanFigures } from '../planning/types';
 import type { OutputAnalysis, SpecDiagnostic } from '../spec/types';
 import { sortedDiagnostics, tally, type CheckedFile } from './checked';
+import { signalJson } from './format-signal';
 import { clockCandidatesJson } from './clock-json';
 
 export interface JsonDiagnostic {
@@ -21,7 +22,7 @@ export interface JsonDiagnostic {
   output?: string;
 }
 
-export type JsonPlan = ReturnType<typeof planJson>;
+export type JsonPlan = ReturnType<typeof planJson> & Partial<ReturnType<typeof signalJson>>;
 
 export interface JsonOutput {
   name: string;
@@ -109,15 +110,17 @@ function diagnosticJson(d: SpecDiagnostic): JsonDiagnostic {
   };
 }
 
-function outputJson(o: OutputAnalysis): JsonOutput {
+function outputJson(o: OutputAnalysis, hw: Hardware | null): JsonOutput {
+  // The signal figures are computed here, on first use (signal/output-signal.ts memoises them).
+  const withSignal = (p: PlanFigures): JsonPlan => ({ ...planJson(p), ...(hw ? signalJson(hw, o.request, p) : {}) });
   return {
     name: o.name,
     targetHz: toNumber(o.targetHz),
     targetHzExact: exactText(o.targetHz),
     verdict: o.planning.verdict,
     withinTolerance: o.planning.withinTolerance,
-    plan: o.planning.plan ? planJson(o.planning.plan) : null,
-    nearestJitterFree: o.planning.nearestJitterFree ? planJson(o.planning.nearestJitterFree) : null,
+    plan: o.planning.plan ? withSignal(o.planning.plan) : null,
+    nearestJitterFree: o.planning.nearestJitterFree ? withSignal(o.planning.nearestJitterFree) : null,
     maxSamplesPerCycle: o.request.maxSamplesPerCycle ? toNumber(o.request.maxSamplesPerCycle) : null,
   };
 }
@@ -129,7 +132,7 @@ export function jsonReport(files: readonly CheckedFile[], version: string): Json
       path: f.path,
       kind: f.analysis.kind,
       diagnostics: sortedDiagnostics(f.analysis.diagnostics).map(diagnosticJson),
-      outputs: f.analysis.outputs.map(outputJson),
+      outputs: f.analysis.outputs.map((o) => outputJson(o, f.analysis.hardware)),
       memory: f.analysis.memory,
       ...(f.analysis.kind === 'wave' ? { clockCandidates: clockCandidatesJson(f.analysis) } : {}),
     })),

@@ -6,6 +6,23 @@ import type { ClockTree } from './clock-source';
 import type { DividerStage, StageValue } from './stages';
 import type { CustomWave } from './custom-wave';
 
+export type LoadKind = 'line' | 'transducer' | 'power-stage' | 'mains';
+
+/** The amplifier and AC coupling after the DAC (server/src/signal/analog-chain.ts checks them). */
+export interface AnalogChain {
+  /** Voltage gain (V/V); 1 when there is no amplifier. */
+  gain: number;
+  slewRateVPerS?: number;
+  gainBandwidthHz?: number;
+  /** The amplifier's output range, V. */
+  swingMinV?: number;
+  swingMaxV?: number;
+  /** AC coupling after the amplifier: series capacitor into the load's resistance. */
+  couplingResistanceOhm?: number;
+  couplingCapacitanceF?: number;
+  load?: LoadKind;
+}
+
 /** The hardware of a clock file, resolved to exact values. */
 export interface Hardware {
   /** f_sys */
@@ -43,6 +60,8 @@ export interface Hardware {
     /** Tables must be a power of two long (DMA ring buffers). */
     powerOfTwo: boolean;
   };
+  /** What follows the DAC (the clock file's `analog`), when described: checked, never planned on. */
+  analog?: AnalogChain;
 }
 
 export type Shape = 'sine' | 'square' | 'triangle' | 'sawtooth';

@@ -10,25 +10,9 @@
 // - the reconstruction filter must bring the first image (f_s − f_out, hold.ts) down to the
 //   quality floor: attenuation = floor + image level (dBc), when positive.
 
-import type { Shape } from '../planning/types';
+import type { AnalogChain, LoadKind, Shape } from '../planning/types';
 
-export type LoadKind = 'line' | 'transducer' | 'power-stage' | 'mains';
-
-export interface AnalogChain {
-  /** Voltage gain (V/V) of the amplifier after the DAC; 1 when there is none. */
-  gain: number;
-  /** V/s. */
-  slewRateVPerS?: number;
-  /** Hz. */
-  gainBandwidthHz?: number;
-  /** The amplifier's output range, V. */
-  swingMinV?: number;
-  swingMaxV?: number;
-  /** AC coupling after the amplifier: series capacitor into the load resistance. */
-  couplingResistanceOhm?: number;
-  couplingCapacitanceF?: number;
-  load?: LoadKind;
-}
+export type { AnalogChain, LoadKind };
 
 export interface ChainSignal {
   shape: Shape;

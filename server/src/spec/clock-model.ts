@@ -9,6 +9,7 @@ import { cmp, toNumber } from '../../../shared-schema/src/rational';
 import { formatHz } from '../../../shared-schema/src/quantity-format';
 import type { DividerStage } from '../planning/stages';
 import type { Hardware } from '../planning/types';
+import { analogChainOf } from './analog-model';
 import { buildClockTree } from './clock-tree-model';
 import { diagnostic, type LineIndex } from './source';
 import { valueRange, rangeFor } from './nodes';
@@ -69,6 +70,8 @@ export function buildHardware(
     dac: { bits, sampleBytes, fullScaleV: toNumber(fullScale.value), maxSampleRateHz: maxRate.value },
     memory: { budgetBytes: toNumber(budget.value), tableLengthMin: nMin, tableLengthMax: nMax, powerOfTwo },
   };
+  const analog = analogChainOf(data, q);
+  if (analog) hardware.analog = analog;
   return { hardware, diagnostics };
 }
 

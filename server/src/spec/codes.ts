@@ -187,6 +187,41 @@ export const CODES = {
     title: 'Too many outputs',
     help: 'The file lists more outputs than waveplan plans in one file (500); the rest are not planned. Split the file.',
   },
+  'signal-quality': {
+    severity: 'warning',
+    title: 'Signal below its quality floor',
+    help: "The output's SNR or SFDR, estimated from the plan (divider jitter, the table, quantisation at this amplitude), is below min-snr / min-sfdr (by default one bit below the ideal quantiser of the DAC, 6.02·(bits − 1) + 1.76 dB). The message names the cause and a plan or change that meets the floor; the hover and the report show the exact spectrum.",
+  },
+  'chain-clipping': {
+    severity: 'warning',
+    title: 'Amplifier output clips',
+    help: "After the analog chain's gain the output swings past the amplifier's output-swing, so its peaks are cut flat. Lower the amplitude or the gain.",
+  },
+  'slew-rate': {
+    severity: 'warning',
+    title: 'Amplifier slew rate too low',
+    help: 'The output needs a faster slew rate than the amplifier has (a sine needs 2π·f·V_peak; a table step needs the step per sample period), so it distorts. Lower the amplitude or frequency, or use a faster amplifier.',
+  },
+  'amplifier-bandwidth': {
+    severity: 'warning',
+    title: 'Amplifier bandwidth too low',
+    help: "The amplifier's closed-loop bandwidth (gain-bandwidth / gain) takes more than 0.1 dB off the fundamental, and with it the shape's harmonics. Use a lower gain or a wider amplifier.",
+  },
+  'coupling-corner': {
+    severity: 'warning',
+    title: 'AC coupling too close to the output frequency',
+    help: "The coupling's high-pass corner 1/(2πRC) takes more than 0.1 dB off the fundamental. Use a larger coupling capacitor (or a larger load resistance).",
+  },
+  'square-tilt': {
+    severity: 'information',
+    title: 'Square-wave tilt through the AC coupling',
+    help: 'A square wave through a coupling capacitor droops along each flat top: 1 − exp(−t/RC) exactly for a level held t, π·f_c/f by the textbook approximation. Both are given; a larger capacitor lowers it.',
+  },
+  'chain-caution': {
+    severity: 'warning',
+    title: 'Caution: the chain drives a load that can hurt',
+    help: 'The analog chain drives a transducer, a power stage or mains-powered equipment. waveplan checks signals, not hardware: follow the datasheets, local codes and qualified practice before running it.',
+  },
   'internal-error': {
     severity: 'error',
     title: 'waveplan failed on this input',

@@ -7,7 +7,9 @@ import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
 import type { Document } from 'yaml';
 import { planOutput } from '../planning/choose';
 import type { Hardware } from '../planning/types';
+import { toNumber } from '../../../shared-schema/src/rational';
 import { planningDiagnostics } from './planning-diagnostics';
+import { qualityFloor, signalDiagnostics } from './signal-diagnostics';
 import type { Quantities } from './quantities';
 import { type LineIndex, diagnostic } from './source';
 import type { OutputAnalysis, SpecDiagnostic } from './types';
@@ -30,6 +32,9 @@ export function planEntry(name: string, entry: OutputEntry, quantities: Quantiti
     const planning = planOutput(hardware, draft.request);
     const toleranceText = draft.toleranceText ?? quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
     diagnostics.push(...planningDiagnostics(draft, planning, hardware, toleranceText));
+    const db = (key: string) => quantities.get(['outputs', name, key]);
+    const floor = qualityFloor(hardware, db('min-snr') && toNumber(db('min-snr')!.value), db('min-sfdr') && toNumber(db('min-sfdr')!.value));
+    diagnostics.push(...signalDiagnostics(draft, planning, hardware, floor));
     return { diagnostics, output: { ...draft, planning }, tableBytes: planning.plan?.tableBytes ?? 0 };
   } catch (e) {
     diagnostics.push(diagnostic('internal-error', draft.nameRange, `Planning this output failed (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`, name));

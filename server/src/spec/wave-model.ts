@@ -18,7 +18,9 @@ import { parseQuantity, toleranceHz } from '../../../shared-schema/src/quantity'
 import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-format';
 import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
 import { defaultMaxSamplesPerCycle } from '../planning/ceiling';
+import type { CustomWave } from '../planning/custom-wave';
 import { pinnedProblems } from '../planning/pinned';
+import { bandLimitedWave } from '../signal/custom-tables';
 import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
@@ -135,7 +137,7 @@ export function buildOutput(
     minSamplesPerCycle,
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
-    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset } },
+    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty) },
     toleranceHz: toleranceHz(tolerance, targetHz),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
     wholeSamplesPerCycle: entry['whole-samples-per-cycle'] ?? DEFAULT_WHOLE_SAMPLES_PER_CYCLE[shape],
@@ -148,6 +150,11 @@ export function buildOutput(
   const entryR = entryRange(doc, lines, ['outputs', name]) ?? nameRange;
   const toleranceText = get('tolerance')?.text ?? DEFAULT_TOLERANCE;
   return { draft: { name, nameRange, entryRange: entryR, valueRanges, targetHz, toleranceText, request }, diagnostics };
+}
+
+/** `band-limit: nyquist` on a square, triangle or sawtooth: the table of its harmonics below f_s/2. */
+function bandLimit(entry: OutputEntry, shape: OutputEntry['shape'], duty: number): { custom?: CustomWave } {
+  return entry['band-limit'] === 'nyquist' && shape !== 'sine' ? { custom: bandLimitedWave(shape, duty, 'nyquist') } : {};
 }
 
 type Push = (code: 'pinned-plan', range: Range, message: string) => void;

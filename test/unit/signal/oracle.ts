@@ -19,10 +19,11 @@ export interface OracleFigures {
 }
 
 /**
- * Figures of a sine table of N samples with the fundamental in bin m1 (harmonics: bins h·m1
- * below N/2, not folded), from the oracle's spectrum of the whole table.
+ * Figures of a table of N samples with the fundamental in bin m1 (harmonics: bins h·m1 below
+ * N/2, not folded), from the oracle's spectrum of the whole table. For a sine the harmonics are
+ * distortion; for the other shapes they are the shape's own (signal), as the engine documents.
  */
-export function oracleSineFigures(table: ArrayLike<number>, m1: number): OracleFigures {
+export function oracleSineFigures(table: ArrayLike<number>, m1: number, sine = true): OracleFigures {
   const n = table.length;
   const p = oraclePowers(table);
   const oneSided = (k: number) => (2 * k === n ? p[k]! : 2 * p[k]!);
@@ -33,13 +34,15 @@ export function oracleSineFigures(table: ArrayLike<number>, m1: number): OracleF
   for (let k = 1; k <= Math.floor(n / 2); k++) {
     if (k === m1) continue;
     const v = oneSided(k);
-    if (k % m1 === 0) harmonics += v;
+    const harmonic = k % m1 === 0;
+    if (harmonic) harmonics += v;
     else other += v;
-    worst = Math.max(worst, v);
+    if (sine || !harmonic) worst = Math.max(worst, v);
   }
+  const signal = sine ? fundamental : fundamental + harmonics;
   return {
-    snrDb: 10 * Math.log10(fundamental / other),
-    sinadDb: 10 * Math.log10(fundamental / (other + harmonics)),
+    snrDb: 10 * Math.log10(signal / other),
+    sinadDb: 10 * Math.log10(signal / (other + (sine ? harmonics : 0))),
     sfdrDb: 10 * Math.log10(fundamental / worst),
     thdPercent: 100 * Math.sqrt(harmonics / fundamental),
   };
