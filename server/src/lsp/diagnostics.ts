@@ -70,9 +70,9 @@ export class DiagnosticsPublisher {
     const doc = this.docs.get(uri);
     if (!doc) return;
     const version = doc.version;
-    const analysis = this.docs.analysisOf(uri);
-    // The analysis is synchronous, but guard anyway: only the newest version may be shown.
-    if (!analysis || this.docs.get(uri)?.version !== version) return;
+    const analysis = this.docs.analysisOf(doc);
+    // The analysis is synchronous, but guard anyway: only the newest text may be shown.
+    if (this.docs.get(uri) !== doc) return;
     this.onAnalysed(analysis);
     void this.connection.sendDiagnostics({ uri, version, diagnostics: toLspDiagnostics(analysis, version) });
   }

@@ -1,9 +1,13 @@
-// Open buffers and one analysis per (document, version). The SpecHost handed to the spec layer
-// prefers an open buffer over the disk, so an unsaved clock file is what its wave specs see.
+// Open buffers and one analysis per document snapshot. Every change makes a new TextDocument
+// (the library's default updates one in place), so a request that captured its document keeps
+// the text, positions and analysis of the version it was asked about, and a client that sends a
+// new text under an old version number still gets a new analysis: caches key on the snapshot,
+// not on the version number. The SpecHost handed to the spec layer prefers an open buffer over
+// the disk, so an unsaved clock file is what its wave specs see.
 
 import { dirname } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { TextDocuments } from 'vscode-languageserver/node';
+import { TextDocuments, type TextDocumentContentChangeEvent, type TextDocumentsConfiguration } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { nodeFileSystem } from '../cli/disk';
 import { ContainedReader } from '../spec/containment';
@@ -62,15 +66,22 @@ export class WorkspaceReads {
   }
 }
 
+/** Documents that never change: an edit gives a new one (incremental changes applied to a copy). */
+const SNAPSHOTS: TextDocumentsConfiguration<TextDocument> = {
+  create: (uri, languageId, version, content) => TextDocument.create(uri, languageId, version, content),
+  update: (doc: TextDocument, changes: TextDocumentContentChangeEvent[], version: number) =>
+    TextDocument.update(TextDocument.create(doc.uri, doc.languageId, doc.version, doc.getText()), changes, version),
+};
+
 interface CacheEntry {
-  version: number;
+  doc: TextDocument;
   analysis: Analysis;
   /** Other files the analysis read (the clock file of a wave spec). */
   reads: Set<string>;
 }
 
 export class SpecDocuments {
-  readonly documents = new TextDocuments(TextDocument);
+  readonly documents = new TextDocuments(SNAPSHOTS);
   private readonly cache = new Map<string, CacheEntry>();
   /** Open documents by file-system path, so the host can find a buffer from a resolved path. */
   private readonly byPath = new Map<string, string>();
@@ -136,12 +147,14 @@ export class SpecDocuments {
     };
   }
 
-  /** The analysis of an open document at its current version (computed once per version). */
-  analysisOf(uri: string): Analysis | undefined {
-    const doc = this.documents.get(uri);
-    if (!doc) return undefined;
+  /**
+   * The analysis of an open document's snapshot (computed once per snapshot). A snapshot older
+   * than the open one (a request that waited) is analysed without displacing the newest.
+   */
+  analysisOf(doc: TextDocument): Analysis {
+    const uri = doc.uri;
     const hit = this.cache.get(uri);
-    if (hit && hit.version === doc.version) {
+    if (hit && hit.doc === doc) {
       // Map order is the recency order: move the entry to the end.
       this.cache.delete(uri);
       this.cache.set(uri, hit);
@@ -149,16 +162,11 @@ export class SpecDocuments {
     }
     const reads = new Set<string>();
     const analysis = this.analyze(uriToPath(uri), doc.getText(), this.host(reads, uriToPath(uri)));
+    if (this.documents.get(uri) !== doc) return analysis;
     this.cache.delete(uri);
-    this.cache.set(uri, { version: doc.version, analysis, reads });
+    this.cache.set(uri, { doc, analysis, reads });
     if (this.cache.size > KEPT_ANALYSES) this.cache.delete(this.cache.keys().next().value!);
     return analysis;
-  }
-
-  /** The cached analysis only if it is of `version`; used to drop stale results. */
-  cachedAt(uri: string, version: number): Analysis | undefined {
-    const hit = this.cache.get(uri);
-    return hit && hit.version === version ? hit.analysis : undefined;
   }
 
   /** Analysis of a file that is not open (disk text; other files still through open buffers). */

@@ -3,14 +3,13 @@
 
 import type { Hover, Position } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import type { Document } from 'yaml';
 import { lookupKey, type KeyInfo } from '../../../shared-schema/src/keys';
 import type { Analysis } from '../spec/types';
 import { clockBudgetLine } from './clock-views';
 import { memoryLine, outputCard } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { quantityViews } from './quantity-views';
-import { nodeAt, type NodeAtCursor } from './yaml-path';
+import type { NodeAtCursor, SyntaxTree } from './yaml-path';
 
 /** VS Code drops hover markdown of 100 000 characters or more. */
 export const HOVER_LIMIT = 100_000;
@@ -50,8 +49,8 @@ function valueHover(analysis: Analysis, at: NodeAtCursor): string | undefined {
   return others && others.length > 0 ? `\`${written}\` = ${others.join(' = ')}` : undefined;
 }
 
-export function hover(doc: TextDocument, tree: Document, analysis: Analysis, position: Position, pictures: boolean): Hover | null {
-  const at = nodeAt(tree, doc.getText(), doc.offsetAt(position));
+export function hover(doc: TextDocument, tree: SyntaxTree, analysis: Analysis, position: Position, pictures: boolean): Hover | null {
+  const at = tree.nodeAt(doc.offsetAt(position));
   if (!at) return null;
   let markdown: string | undefined;
   if (at.role === 'key' && analysis.kind === 'wave' && at.path.length === 2 && at.path[0] === 'outputs') {

@@ -15,6 +15,8 @@ import {
   type WorkspaceFolder,
 } from 'vscode-languageserver/node';
 import { analyze } from '../spec/analyze';
+import { syntaxOf } from '../spec/syntax';
+import { SyntaxTrees } from './yaml-path';
 import { codeActions } from './code-actions';
 import { codeLenses } from './code-lens';
 import { COMMANDS, PLAN_REPORT, planReport, RECHECK_WORKSPACE, recheckWorkspace } from './commands';
@@ -29,7 +31,6 @@ import { inlayHints } from './inlay-hints';
 import { guard, guardNotification, yieldToEvents } from './safe';
 import { SettingsCache } from './settings';
 import { clockSymbols, waveSymbols } from './symbols';
-import { SyntaxTrees } from './yaml-path';
 
 /** Wave specs analysed at startup between two yields to the event loop. */
 const SCAN_SLICE = 20;
@@ -165,39 +166,45 @@ export function startServer(): void {
     }),
   );
 
+  /**
+   * The document as the request found it, with its analysis, taken before any await: the answer
+   * is about that version even when newer text arrives while the request waits (settings, say).
+   */
+  const snapshot = (uri: string) => {
+    const doc = docs.get(uri);
+    return doc && { doc, analysis: docs.analysisOf(doc) };
+  };
+
   connection.languages.inlayHint.on(
     guard(log, 'inlay hints', [], async (params) => {
-      const doc = docs.get(params.textDocument.uri);
-      if (!doc || !(await settings.get(doc.uri)).annotationsEnabled) return [];
-      const analysis = docs.analysisOf(doc.uri);
-      return analysis ? inlayHints(doc, analysis, params.range) : [];
+      const at = snapshot(params.textDocument.uri);
+      if (!at || !(await settings.get(at.doc.uri)).annotationsEnabled) return [];
+      return inlayHints(at.doc, at.analysis, params.range);
     }),
   );
 
   connection.onHover(
     guard(log, 'hover', null, async (params) => {
-      const doc = docs.get(params.textDocument.uri);
-      const analysis = doc && docs.analysisOf(doc.uri);
-      if (!doc || !analysis) return null;
-      const { hoverPictures } = await settings.get(doc.uri);
-      return hover(doc, trees.of(doc), analysis, params.position, hoverPictures);
+      const at = snapshot(params.textDocument.uri);
+      if (!at) return null;
+      const { hoverPictures } = await settings.get(at.doc.uri);
+      return hover(at.doc, syntaxOf(at.analysis), at.analysis, params.position, hoverPictures);
     }),
   );
 
   connection.onCodeAction(
     guard(log, 'code actions', [], (params, token) => {
-      const doc = docs.get(params.textDocument.uri);
-      const analysis = doc && docs.analysisOf(doc.uri);
-      if (!doc || !analysis) return [];
-      return codeActions(doc, analysis, params.context.diagnostics, token, { recheck: (text) => docs.analyzeEdited(doc.uri, text), tree: () => trees.of(doc) });
+      const at = snapshot(params.textDocument.uri);
+      if (!at) return [];
+      return codeActions(at.doc, at.analysis, params.context.diagnostics, token, { recheck: (text) => docs.analyzeEdited(at.doc.uri, text), tree: () => trees.of(at.doc) });
     }),
   );
 
   connection.onCodeLens(
     guard(log, 'code lens', [], async (params) => {
-      const doc = docs.get(params.textDocument.uri);
-      if (!doc) return [];
-      return codeLenses(doc, trees.of(doc), (await settings.get(doc.uri)).exportDirectory);
+      const at = snapshot(params.textDocument.uri);
+      if (!at) return [];
+      return codeLenses(at.doc, syntaxOf(at.analysis), (await settings.get(at.doc.uri)).exportDirectory);
     }),
   );
 
@@ -210,19 +217,17 @@ export function startServer(): void {
 
   connection.onDocumentSymbol(
     guard(log, 'symbols', [], (params) => {
-      const doc = docs.get(params.textDocument.uri);
-      const analysis = doc && docs.analysisOf(doc.uri);
-      if (!doc || !analysis) return [];
-      return analysis.kind === 'wave' ? waveSymbols(analysis) : clockSymbols(doc, trees.of(doc));
+      const at = snapshot(params.textDocument.uri);
+      if (!at) return [];
+      return at.analysis.kind === 'wave' ? waveSymbols(at.analysis) : clockSymbols(at.doc, syntaxOf(at.analysis));
     }),
   );
 
   connection.onDefinition(
     guard(log, 'definition', [], (params) => {
-      const doc = docs.get(params.textDocument.uri);
-      const analysis = doc && docs.analysisOf(doc.uri);
-      if (!doc || !analysis) return [];
-      return clockDefinition(doc, trees.of(doc), analysis, doc.offsetAt(params.position), (p) => docs.uriOfPath(p));
+      const at = snapshot(params.textDocument.uri);
+      if (!at) return [];
+      return clockDefinition(at.doc, syntaxOf(at.analysis), at.analysis, at.doc.offsetAt(params.position), (p) => docs.uriOfPath(p));
     }),
   );
 
@@ -235,10 +240,11 @@ export function startServer(): void {
           {
             recheck: (path) => {
               const uri = docs.uriOfPath(path);
-              if (!docs.get(uri)) return publisher.publishClosed(path);
+              const doc = docs.get(uri);
+              if (!doc) return publisher.publishClosed(path);
               docs.invalidate(uri);
               publisher.publishOpen(uri);
-              return docs.analysisOf(uri);
+              return docs.analysisOf(doc);
             },
           },
           progress,
@@ -248,7 +254,8 @@ export function startServer(): void {
       if (params.command === PLAN_REPORT) {
         const uri = typeof params.arguments?.[0] === 'string' ? params.arguments[0] : undefined;
         if (!uri) throw new Error('waveplan.planReport needs the URI of a spec as its argument');
-        const analysis = docs.get(uri) ? docs.analysisOf(uri) : docs.analyzeClosed(uriToPath(uri));
+        const open = docs.get(uri);
+        const analysis = open ? docs.analysisOf(open) : docs.analyzeClosed(uriToPath(uri));
         if (!analysis) throw new Error(`cannot read ${uri}`);
         return planReport(analysis, uriToPath(uri).split(/[\\/]/).pop() ?? uri);
       }
@@ -263,12 +270,21 @@ export function startServer(): void {
     }),
   );
 
-  // For the benchmark and for bug reports: how much memory the server holds right now.
+  // For the benchmark and for bug reports: how much memory and CPU the server has used.
   connection.onRequest(
     'waveplan/serverStats',
     guard(log, 'server stats', null, () => {
       const m = process.memoryUsage();
-      return { rssBytes: m.rss, heapUsedBytes: m.heapUsed, heapTotalBytes: m.heapTotal, externalBytes: m.external, openDocuments: docs.documents.keys().length };
+      const cpu = process.cpuUsage();
+      return {
+        rssBytes: m.rss,
+        heapUsedBytes: m.heapUsed,
+        heapTotalBytes: m.heapTotal,
+        externalBytes: m.external,
+        openDocuments: docs.documents.keys().length,
+        // Server CPU since it started (user + system, microseconds): the benchmark's steady figure.
+        cpuMicros: cpu.user + cpu.system,
+      };
     }),
   );
 

@@ -4,8 +4,8 @@
 
 import { SymbolKind, type DocumentSymbol, type Position, type Range } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { isMap, isPair, isScalar, type Document, type Node } from 'yaml';
 import type { Analysis } from '../spec/types';
+import type { SyntaxTree } from './yaml-path';
 import { hintText } from './inlay-hints';
 import { VERDICT_WORDS } from './plan-card';
 
@@ -31,17 +31,10 @@ export function waveSymbols(analysis: Analysis): DocumentSymbol[] {
   });
 }
 
-export function clockSymbols(doc: TextDocument, tree: Document): DocumentSymbol[] {
-  const root = tree.contents as Node | null;
-  if (!isMap(root)) return [];
-  const out: DocumentSymbol[] = [];
-  for (const pair of root.items) {
-    if (!isPair(pair) || !isScalar(pair.key) || !pair.key.range) continue;
-    const key = pair.key.range;
-    const end = (pair.value as Node | null)?.range?.[1] ?? key[1];
-    const selection = { start: doc.positionAt(key[0]), end: doc.positionAt(key[1]) };
-    const range = { start: doc.positionAt(key[0]), end: doc.positionAt(end) };
-    out.push(symbol(String(pair.key.value), '', SymbolKind.Module, range, selection));
-  }
-  return out;
+export function clockSymbols(doc: TextDocument, tree: SyntaxTree): DocumentSymbol[] {
+  return tree.topLevel().map((k) => {
+    const selection = { start: doc.positionAt(k.start), end: doc.positionAt(k.end) };
+    const range = { start: doc.positionAt(k.start), end: doc.positionAt(k.valueEnd) };
+    return symbol(k.key, '', SymbolKind.Module, range, selection);
+  });
 }

@@ -13,7 +13,8 @@ import { Memo } from './memo';
 import { planEntry } from './output-plan';
 import { readQuantities } from './quantities';
 import { validate } from './schema-issues';
-import { type Source, diagnostic, readSource } from './source';
+import { type Source, WAVE_OUTPUTS, diagnostic, readSource } from './source';
+import { documentTree, setSyntax } from './syntax';
 import type { Analysis, Range, SpecDiagnostic, SpecHost } from './types';
 import { type WaveSteps, analyzeWaveFast } from './wave-fast';
 import { outputNames } from './wave-model';
@@ -57,7 +58,7 @@ interface Read {
 }
 
 function read(kind: FileKind, text: string): Read & { quantities?: ReturnType<typeof readQuantities>['quantities'] } {
-  const src = readSource(text, (p) => kind === 'wave' && p.length === 1 && p[0] === 'outputs');
+  const src = readSource(text, kind === 'wave' ? WAVE_OUTPUTS : undefined);
   const diagnostics = [...src.diagnostics];
   if (!src.doc) return { src, diagnostics };
   diagnostics.push(...validate(kind, src.doc, src.lines, src.data));
@@ -99,6 +100,7 @@ function splitReading(analysis: Analysis, steps: WaveSteps): boolean {
 function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
   const { src, diagnostics, quantities } = read('wave', analysis.text);
   analysis.diagnostics = diagnostics;
+  setSyntax(analysis, documentTree(src.tree, analysis.text));
   const doc = src.doc;
   if (!doc || !quantities) return;
   const data = (src.data ?? {}) as Partial<WaveFile>;

@@ -2,7 +2,8 @@
 // in a bounded memo keyed by that text: an edit elsewhere in the file leaves the piece's text,
 // and so its reading, unchanged. The piece is read as a small spec of its own, `outputs:` and the
 // piece, so every key path and message is the one the whole file gives; positions come back
-// relative to the piece and are moved to the file's lines when used (mapPiece).
+// relative to the piece and are moved to the file's lines when used (mapPiece). While the file as a
+// whole does not parse, a piece that does not parse alone yields its own syntax errors (pieceSyntax).
 
 import type { Document } from 'yaml';
 import { type OutputEntry, outputSchema, waveSchema } from '../../../shared-schema/src/wave-schema';
@@ -11,8 +12,9 @@ import { Memo } from './memo';
 import { type PlannedOutput, planEntry } from './output-plan';
 import { Quantities, readOutputQuantities } from './quantities';
 import { schemaDiagnostics } from './schema-issues';
+import { endsWithLineBreak, lineBreakCount } from './line-breaks';
 import type { OutputPiece } from './segments';
-import { type LineIndex, readSource } from './source';
+import { type LineIndex, WAVE_OUTPUTS, readSource } from './source';
 import type { OutputAnalysis, Position, Range, SpecDiagnostic } from './types';
 import { outputNames } from './wave-model';
 
@@ -34,14 +36,17 @@ export interface PieceReading {
 
 const NOT_READABLE: PieceReading = { ok: false, schema: [], quantities: [], plannable: false, planned: new WeakMap() };
 
+/** Where the piece's own text starts in its standalone form. */
+export const STANDALONE_PREFIX = 'outputs:\n';
+
 /** The piece as a spec of its own: line 0 is `outputs:`, the piece starts on line 1. */
-function standalone(piece: OutputPiece): string {
-  const column = piece.text.length - piece.text.trimStart().length;
-  const after = piece.follower === 'sibling' ? `${' '.repeat(column)}${piece.name}-0:\n` : piece.follower === 'top-level' ? 'next:\n' : '';
-  return `outputs:\n${piece.text}${after}`;
+export function standalone(piece: OutputPiece): string {
+  const sibling = piece.keyed ? `${piece.name}-0` : 'next-0';
+  const after = piece.follower === 'sibling' ? `${' '.repeat(piece.column)}${sibling}:\n` : piece.follower === 'top-level' ? 'next:\n' : '';
+  return `${STANDALONE_PREFIX}${piece.text}${after}`;
 }
 
-const isOutputs = (p: string[]) => p.length === 1 && p[0] === 'outputs';
+const isOutputs = WAVE_OUTPUTS;
 
 interface Parsed {
   doc: Document.Parsed;
@@ -51,6 +56,7 @@ interface Parsed {
 }
 
 function parse(piece: OutputPiece): Parsed | null {
+  if (!piece.keyed) return null;
   const src = readSource(standalone(piece), isOutputs);
   if (!src.doc || src.diagnostics.length > 0) return null;
   const outputs = (src.data as { outputs?: unknown } | null)?.outputs;
@@ -74,10 +80,9 @@ function schemaOf(piece: OutputPiece, { doc, lines, data }: Parsed): SpecDiagnos
 
 /** Lines of the standalone text that belong to the piece (the line after it only at its start). */
 function inPiece(piece: OutputPiece): (p: Position) => boolean {
-  let newlines = 0;
-  for (let i = 0; i < piece.text.length; i++) if (piece.text.charCodeAt(i) === 10) newlines++;
-  const closed = piece.text.endsWith('\n');
-  return (p) => p.line >= 1 && (p.line < 1 + newlines || (p.line === 1 + newlines && (!closed || p.character === 0)));
+  const breaks = lineBreakCount(piece.text);
+  const closed = endsWithLineBreak(piece.text);
+  return (p) => p.line >= 1 && (p.line < 1 + breaks || (p.line === 1 + breaks && (!closed || p.character === 0)));
 }
 
 const rangeIn = (ok: (p: Position) => boolean, r: Range): boolean => ok(r.start) && ok(r.end);
@@ -117,7 +122,7 @@ function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware): Pl
 // costs the language server resident memory (bench/lsp.ts) for little gain.
 const readings = new Memo<string, PieceReading>(1000);
 
-const keyOf = (piece: OutputPiece): string => `${piece.follower}\u0000${piece.text}`;
+const keyOf = (piece: OutputPiece): string => `${piece.follower}\u0000${piece.column}\u0000${piece.text}`;
 
 export function readPiece(piece: OutputPiece): PieceReading {
   return readings.get(keyOf(piece), () => read(piece));
@@ -146,4 +151,26 @@ export function mapPiece(piece: OutputPiece) {
   return { range, diag, output };
 }
 
-export const clearPieceMemo = (): void => readings.clear();
+/**
+ * The syntax errors of the piece read on its own, at standalone positions (mapPiece moves them);
+ * one outside the piece's lines (the parser often points past the end) lands on its first line.
+ */
+function syntaxOf(piece: OutputPiece): SpecDiagnostic[] {
+  const src = readSource(standalone(piece), isOutputs);
+  const ok = inPiece(piece);
+  const first: Range = { start: { line: 1, character: 0 }, end: { line: 1, character: piece.text.search(/[\r\n]|$/) } };
+  return src.diagnostics
+    .filter((d) => d.code === 'yaml-syntax')
+    .map((d) => (rangeIn(ok, d.range) ? d : { ...d, range: first }));
+}
+
+const syntaxErrors = new Memo<string, SpecDiagnostic[]>(64);
+
+export function pieceSyntax(piece: OutputPiece): SpecDiagnostic[] {
+  return syntaxErrors.get(keyOf(piece), () => syntaxOf(piece));
+}
+
+export const clearPieceMemo = (): void => {
+  readings.clear();
+  syntaxErrors.clear();
+};

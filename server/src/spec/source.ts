@@ -1,9 +1,11 @@
 // YAML text → a parsed document with offsets → LSP ranges, guarded against inputs that would
 // exhaust the parser (huge files, deep nesting, alias bombs). Duplicate keys are found here and
-// dropped (the first is kept), so every later step sees one value per key.
+// dropped (the first is kept), so every later step sees one value per key. Lines break at CR LF,
+// lone CR and LF alike (line-breaks.ts), so the checker's positions are the editor's.
 
 import { type Document, type Node, type Pair, isAlias, isCollection, isPair, isScalar, isSeq, parseDocument } from 'yaml';
 import { type Code, codeInfo } from './codes';
+import { forYaml, lineStarts } from './line-breaks';
 import type { Position, Range, SpecDiagnostic } from './types';
 
 /** A spec is a few kilobytes; the YAML parser needs about a second per megabyte on a slow machine. */
@@ -12,11 +14,21 @@ export const MAX_FILE_CHARS = 1024 * 1024;
 export const MAX_DEPTH = 32;
 export const MAX_ALIAS_COUNT = 100;
 
-/** Offsets (UTF-16 code units, as JS strings index) → 0-based line/character. */
+/** Offsets (UTF-16 code units, as JS strings index) → 0-based line/character, lines as LSP counts them. */
 export class LineIndex {
-  private readonly starts: number[] = [0];
+  private readonly starts: number[];
   constructor(readonly text: string) {
-    for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) === 10) this.starts.push(i + 1);
+    this.starts = lineStarts(text);
+  }
+  get lineCount(): number {
+    return this.starts.length;
+  }
+  /** Offset of a position; a character past its line's end stops at the line's end. */
+  offset(p: Position): number {
+    if (p.line >= this.starts.length) return this.text.length;
+    const start = this.starts[Math.max(0, p.line)];
+    const next = p.line + 1 < this.starts.length ? this.starts[p.line + 1] : this.text.length;
+    return Math.min(start + Math.max(0, p.character), next);
   }
   position(offset: number): Position {
     const o = Math.max(0, Math.min(offset, this.text.length));
@@ -34,7 +46,7 @@ export class LineIndex {
   }
   /** The first line with text on it, trimmed: where file-wide diagnostics go. */
   firstLine(): Range {
-    const m = /\S[^\n]*/.exec(this.text.slice(0, 10_000));
+    const m = /\S[^\r\n]*/.exec(this.text.slice(0, 10_000));
     if (!m) return this.range(0, 0);
     return this.range(m.index, m.index + m[0].trimEnd().length);
   }
@@ -47,10 +59,13 @@ export function diagnostic(code: Code, range: Range, message: string, output?: s
 }
 
 export interface Source {
+  /** The text as the YAML parser read it (lone CRs as LF: same offsets, same lines). */
   text: string;
   lines: LineIndex;
   /** Null when the text could not be parsed; diagnostics say why. */
   doc: Document.Parsed | null;
+  /** What the parser made of the text, errors and all (null when it gave up): for cursors, not for checks. */
+  tree: Document.Parsed | null;
   /** The document as plain data (aliases expanded), for schema validation. */
   data: unknown;
   diagnostics: SpecDiagnostic[];
@@ -64,7 +79,7 @@ export function flowDepthBreach(text: string): number | undefined {
   for (let i = 0; i < text.length; i++) {
     const c = text[i];
     if (comment) {
-      if (c === '\n') comment = false;
+      if (c === '\n' || c === '\r') comment = false;
     } else if (quote) {
       if (c === quote) quote = '';
       else if (c === '\\' && quote === '"') i++;
@@ -126,10 +141,27 @@ function inspect(doc: Document.Parsed, lines: LineIndex, isOutputs: (path: strin
   return out;
 }
 
+/** Which mapping of a wave spec holds output names (the one predicate the memo below knows). */
+export const WAVE_OUTPUTS = (path: string[]): boolean => path.length === 1 && path[0] === 'outputs';
+
+// The last wave text read: a split reading that declines has just parsed the file whole to learn
+// whether it is valid YAML, and the whole reading then starts from that parse. Only texts of a
+// plausible spec's size are kept, so a large file's tree is not held after its analysis is gone.
+const KEPT_TEXT_CHARS = 256 * 1024;
+let lastWave: { original: string; source: Source } | undefined;
+
 /** Parses a spec's text; never throws. `isOutputs` tells which mapping holds output names. */
-export function readSource(text: string, isOutputs: (path: string[]) => boolean = () => false): Source {
+export function readSource(raw: string, isOutputs: (path: string[]) => boolean = () => false): Source {
+  if (isOutputs === WAVE_OUTPUTS && lastWave?.original === raw) return lastWave.source;
+  const source = parse(raw, isOutputs);
+  if (isOutputs === WAVE_OUTPUTS) lastWave = raw.length <= KEPT_TEXT_CHARS ? { original: raw, source } : undefined;
+  return source;
+}
+
+function parse(raw: string, isOutputs: (path: string[]) => boolean): Source {
+  const text = forYaml(raw);
   const lines = new LineIndex(text);
-  const fail = (d: SpecDiagnostic): Source => ({ text, lines, doc: null, data: undefined, diagnostics: [d] });
+  const fail = (d: SpecDiagnostic): Source => ({ text, lines, doc: null, tree: null, data: undefined, diagnostics: [d] });
   if (text.length > MAX_FILE_CHARS) {
     const mb = (text.length / 1024 / 1024).toFixed(1);
     return fail(diagnostic('file-too-large', lines.range(0, 0), `The file is ${mb} MB, more than the 1 MB waveplan reads: check that this is the spec you meant.`));
@@ -145,18 +177,19 @@ export function readSource(text: string, isOutputs: (path: string[]) => boolean 
     return fail(diagnostic('too-complex', lines.firstLine(), `The YAML parser gave up on this file (${(e as Error).message.slice(0, 80)}): simplify the file.`));
   }
   const diagnostics: SpecDiagnostic[] = [];
+  const broken = (): Source => ({ text, lines, doc: null, tree: doc, data: undefined, diagnostics });
   for (const err of doc.errors) diagnostics.push(syntaxDiagnostic(lines, err.code, err.pos, err.message));
-  if (diagnostics.length > 0) return { text, lines, doc: null, data: undefined, diagnostics };
+  if (diagnostics.length > 0) return broken();
   diagnostics.push(...inspect(doc, lines, isOutputs));
-  if (diagnostics.some((d) => d.code === 'too-complex')) return { text, lines, doc: null, data: undefined, diagnostics };
+  if (diagnostics.some((d) => d.code === 'too-complex')) return broken();
   let data: unknown;
   try {
     data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (e) {
     diagnostics.push(diagnostic('too-complex', lines.firstLine(), `The YAML expands too many aliases (${(e as Error).message.slice(0, 60)}): write the values out plainly.`));
-    return { text, lines, doc: null, data: undefined, diagnostics };
+    return broken();
   }
-  return { text, lines, doc, data, diagnostics };
+  return { text, lines, doc, tree: doc, data, diagnostics };
 }
 
 /**
@@ -190,8 +223,9 @@ function syntaxDiagnostic(lines: LineIndex, code: string, pos: [number, number],
   if (quote) {
     const open = lines.text.lastIndexOf(quote, Math.min(pos[0], lines.text.length) - 1);
     if (open >= 0) {
-      let end = lines.text.indexOf('\n', open);
-      if (end < 0) end = lines.text.length;
+      // The line's end, before its break (a CR of a CR LF is not text on the line).
+      const rest = lines.text.slice(open).search(/[\r\n]/);
+      const end = rest < 0 ? lines.text.length : open + rest;
       return diagnostic('yaml-syntax', lines.range(open, end), `This quoted text has no closing ${quote}: add one where the text ends.`);
     }
   }

@@ -3,28 +3,26 @@
 // It gives exactly the analysis of reading the file whole (analyze.ts), or declines whenever the
 // frame or a piece has anything the split cannot vouch for (a YAML or schema problem in the frame,
 // a piece that does not parse alone): it then returns false, the caller empties the analysis and
-// reads the file whole.
+// reads the file whole. One exception, so that editing keeps its footing: while the file as a
+// whole is not valid YAML (a line half typed), the outputs whose own text reads still get their
+// diagnostics and plans, and the syntax errors are shown where they are (frame-tolerant.ts).
 
 import { type WaveFile, waveSchema } from '../../../shared-schema/src/wave-schema';
 import type { Hardware } from '../planning/types';
+import { type FrameReading, frameSyntax } from './frame-tolerant';
 import { Memo } from './memo';
 import { keyRange, valueRange } from './nodes';
-import { type PieceReading, mapPiece, planPiece, readPiece } from './output-cache';
+import { type PieceReading, mapPiece, pieceSyntax, planPiece, readPiece } from './output-cache';
 import type { PlannedOutput } from './output-plan';
 import { quantityKeys } from './quantities';
-import { splitWave } from './segments';
-import { flowDepthBreach, readSource } from './source';
+import { type Segments, splitWave } from './segments';
+import { WAVE_OUTPUTS, flowDepthBreach, readSource } from './source';
+import { splitTree } from './split-tree';
+import { setSyntax } from './syntax';
 import type { Analysis, OutputAnalysis, Range, SpecDiagnostic } from './types';
 
-/** What the wave spec needs from its frame, with positions on the frame's own lines. */
-interface Frame {
-  clock: unknown;
-  clockRange: Range;
-  outputsKey: Range;
-}
-
-function readFrame(text: string): Frame | null {
-  const src = readSource(text, (p) => p.length === 1 && p[0] === 'outputs');
+function readFrame(text: string): FrameReading | null {
+  const src = readSource(text, WAVE_OUTPUTS);
   if (!src.doc || src.diagnostics.length > 0) return null;
   const data = src.data as Partial<WaveFile> | null;
   // Without its pieces `outputs:` must be empty; anything else there (a `- ` line at the margin
@@ -34,10 +32,10 @@ function readFrame(text: string): Frame | null {
   if (!waveSchema.safeParse({ ...data, outputs: {} }).success) return null;
   const outputsKey = keyRange(src.doc, src.lines, ['outputs']);
   if (!outputsKey) return null;
-  return { clock: data.clock, clockRange: valueRange(src.doc, src.lines, ['clock']) ?? src.lines.firstLine(), outputsKey };
+  return { clock: data.clock, clockRange: valueRange(src.doc, src.lines, ['clock']) ?? src.lines.firstLine(), outputsKey, syntax: [] };
 }
 
-const frames = new Memo<string, Frame | null>(64);
+const frames = new Memo<string, FrameReading | null>(64);
 
 // Every quantity key of a wave spec sits under an output; were one added at the top level, the
 // frame would have quantities of its own and this split would not know where to list them.
@@ -50,44 +48,59 @@ export interface WaveSteps {
   overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, outputsKey: Range): void;
 }
 
+/** Frame positions → file positions (the outputs block sits between the frame's head and tail). */
+function frameMapper(seg: Segments): (r: Range) => Range {
+  const line = (l: number) => (l < seg.headLines ? l : l + seg.pieceLines);
+  return (r) => ({ start: { line: line(r.start.line), character: r.start.character }, end: { line: line(r.end.line), character: r.end.character } });
+}
+
+/** True when the text as a whole is not valid YAML: only then may the split read past a piece it cannot vouch for. */
+function brokenYaml(text: string): SpecDiagnostic[] | undefined {
+  const src = readSource(text, WAVE_OUTPUTS);
+  if (src.doc) return undefined;
+  const syntax = src.diagnostics.filter((d) => d.code === 'yaml-syntax');
+  return syntax.length === src.diagnostics.length ? syntax : undefined;
+}
+
 export function analyzeWaveFast(analysis: Analysis, steps: WaveSteps): boolean {
   const text = analysis.text;
   if (!outputQuantitiesOnly()) return false;
   const seg = splitWave(text, steps.maxOutputs);
   if (!seg || flowDepthBreach(text) !== undefined) return false;
-  const frame = frames.get(seg.frameText, readFrame);
-  if (!frame) return false;
-  const readings: PieceReading[] = [];
-  for (const piece of seg.pieces) {
-    const reading = readPiece(piece);
-    if (!reading.ok) return false;
-    readings.push(reading);
-  }
-  const toFile = (r: Range): Range => ({
-    start: { line: seg.frameLines[r.start.line], character: r.start.character },
-    end: { line: seg.frameLines[r.end.line], character: r.end.character },
-  });
+  const exactFrame = frames.get(seg.frameText, readFrame);
+  const readings: PieceReading[] = seg.pieces.map(readPiece);
+  const exact = exactFrame !== null && readings.every((r) => r.ok);
+  const wholeSyntax = exact ? undefined : brokenYaml(text);
+  if (!exact && !wholeSyntax) return false;
+  const frame = exactFrame ?? frameSyntax(seg.frameText);
+  const toFile = frameMapper(seg);
   const maps = seg.pieces.map(mapPiece);
+  setSyntax(analysis, splitTree(seg));
 
-  // The order reading the file whole gives: schema issues output by output, then quantity
-  // problems key by key (outputs in file order within a key).
+  // The order reading the file whole gives: syntax errors, then schema issues output by output,
+  // then quantity problems key by key (outputs in file order within a key).
   const diagnostics: SpecDiagnostic[] = [];
+  if (wholeSyntax) {
+    const local = [...frame.syntax.map((d) => ({ ...d, range: toFile(d.range) }))];
+    readings.forEach((r, i) => {
+      if (!r.ok) local.push(...pieceSyntax(seg.pieces[i]).map(maps[i].diag));
+    });
+    // Each part reads alone yet the whole does not (a bracket that spans outputs): the whole's errors.
+    diagnostics.push(...(local.length > 0 ? local : wholeSyntax));
+  }
   readings.forEach((r, i) => diagnostics.push(...r.schema.map(maps[i].diag)));
   quantityKeys('wave').forEach((_, k) => readings.forEach((r, i) => diagnostics.push(...(r.quantities[k] ?? []).map(maps[i].diag))));
   analysis.diagnostics = diagnostics;
 
+  if (frame.clock === undefined || !frame.clockRange) return true;
   const hardware = steps.resolveClock(analysis, frame.clock, toFile(frame.clockRange));
   if (!hardware) return true;
 
   const planned: (PlannedOutput | undefined)[] = [];
   for (let i = 0; i < seg.pieces.length; i++) {
-    if (!readings[i].plannable) {
-      planned.push(undefined);
-      continue;
-    }
-    const p = planPiece(seg.pieces[i], readings[i], hardware);
-    if (!p) return false;
-    planned.push(p);
+    const p = readings[i].plannable ? planPiece(seg.pieces[i], readings[i], hardware) : undefined;
+    if (p === null && exact) return false;
+    planned.push(p ?? undefined);
   }
   analysis.hardware = hardware;
   const outputs: OutputAnalysis[] = [];
@@ -99,6 +112,7 @@ export function analyzeWaveFast(analysis: Analysis, steps: WaveSteps): boolean {
     usedBytes += p.tableBytes;
   });
   analysis.outputs = outputs;
-  steps.overBudget(analysis, usedBytes, hardware, toFile(frame.outputsKey));
+  const outputsLine: Range = { start: { line: seg.outputsLine, character: 0 }, end: { line: seg.outputsLine, character: 'outputs'.length } };
+  steps.overBudget(analysis, usedBytes, hardware, frame.outputsKey ? toFile(frame.outputsKey) : outputsLine);
   return true;
 }

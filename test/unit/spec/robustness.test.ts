@@ -20,7 +20,8 @@ function seeded(seed: number) {
 }
 
 function checkRanges(a: Analysis, text: string): void {
-  const lines = text.split('\n');
+  // Lines as LSP counts them: CR LF, a lone CR and LF each end one (LSP 3.17, "Position").
+  const lines = text.split(/\r\n|\r|\n/);
   for (const d of a.diagnostics) {
     expect(Object.hasOwn(CODES, d.code), d.code).toBe(true);
     expect(d.message.length).toBeGreaterThan(10);
