@@ -1,10 +1,11 @@
-// A status bar item that counts the outputs the server reports as out of tolerance, across all
-// open and checked files. It reads the editor's diagnostics, so it never disagrees with Problems.
+// A status bar item that counts the outputs the server reports as out of tolerance, and the files
+// with any other error (a YAML syntax error, a schema problem, an unreadable clock), across all
+// open and checked files. It reads the editor's diagnostics, so it never disagrees with Problems,
+// and it shows the all-clear mark only when no waveplan error is left anywhere: a file that does
+// not parse is never summarised as good.
 
 import * as vscode from 'vscode';
-
-export const OUT_OF_TOLERANCE_CODE = 'out-of-tolerance';
-export const DIAGNOSTIC_SOURCE = 'waveplan';
+import { countStatus, statusText } from './status-summary';
 
 /** The code of a diagnostic as a plain string, whichever of the API's shapes it came in. */
 function codeOf(diagnostic: vscode.Diagnostic): string | undefined {
@@ -13,22 +14,12 @@ function codeOf(diagnostic: vscode.Diagnostic): string | undefined {
   return typeof code === 'object' ? String(code.value) : String(code);
 }
 
-export function countOutOfTolerance(entries: ReadonlyArray<readonly [vscode.Uri, readonly vscode.Diagnostic[]]>): number {
-  let count = 0;
-  for (const [, diagnostics] of entries) {
-    for (const d of diagnostics) {
-      if (d.source === DIAGNOSTIC_SOURCE && codeOf(d) === OUT_OF_TOLERANCE_CODE) count++;
-    }
-  }
-  return count;
-}
-
 export class OutOfToleranceStatus implements vscode.Disposable {
   private readonly item = vscode.window.createStatusBarItem('waveplan.outOfTolerance', vscode.StatusBarAlignment.Left, 10);
   private readonly listener: vscode.Disposable;
 
   constructor() {
-    this.item.name = 'waveplan: outputs out of tolerance';
+    this.item.name = 'waveplan: outputs out of tolerance and files with errors';
     // The Problems panel lists each one with its range; that is where a click should lead.
     this.item.command = 'workbench.actions.view.problems';
     this.listener = vscode.languages.onDidChangeDiagnostics(() => this.update());
@@ -37,17 +28,11 @@ export class OutOfToleranceStatus implements vscode.Disposable {
   }
 
   private update(): void {
-    const count = countOutOfTolerance(vscode.languages.getDiagnostics());
-    if (count === 0) {
-      this.item.text = '$(pass) waveplan';
-      this.item.tooltip = 'waveplan: every checked output is within its tolerance';
-      this.item.backgroundColor = undefined;
-    } else {
-      const noun = count === 1 ? 'output' : 'outputs';
-      this.item.text = `$(warning) waveplan: ${count} ${noun} out of tolerance`;
-      this.item.tooltip = `${count} ${noun} miss their frequency tolerance; click to list them in Problems`;
-      this.item.backgroundColor = new vscode.ThemeColor('statusBarItem.warningBackground');
-    }
+    const shown = statusText(countStatus(vscode.languages.getDiagnostics().map(([, ds]) => ds.map((d) => ({ source: d.source, code: codeOf(d), error: d.severity === vscode.DiagnosticSeverity.Error })))));
+    this.item.text = shown.text;
+    this.item.tooltip = shown.tooltip;
+    this.item.backgroundColor =
+      shown.level === 'ok' ? undefined : new vscode.ThemeColor(shown.level === 'error' ? 'statusBarItem.errorBackground' : 'statusBarItem.warningBackground');
   }
 
   dispose(): void {

@@ -8,9 +8,9 @@ import { spawnSync } from 'node:child_process';
 import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ensureBuilt, LspClient, ROOT, uriOf, type LspDiagnostic } from '../support/lsp-client';
-import { scratchCopy } from './workspace';
+import { describe, expect, it } from 'vitest';
+import { ROOT, uriOf, type LspDiagnostic } from '../support/lsp-client';
+import { serverOnScratch } from './workspace';
 
 type Range = LspDiagnostic['range'];
 interface Symbol {
@@ -23,19 +23,7 @@ interface Action {
   edit?: { changes?: Record<string, { range: Range; newText: string }[]> };
 }
 
-let client: LspClient;
-let ws: ReturnType<typeof scratchCopy>;
-
-beforeAll(async () => {
-  ensureBuilt();
-  ws = scratchCopy();
-  client = await LspClient.start({ folders: [ws.dir] });
-});
-
-afterAll(async () => {
-  await client?.stop();
-  ws?.remove();
-});
+const server = serverOnScratch();
 
 const BREAKS = { lf: '\n', crlf: '\r\n', cr: '\r' } as const;
 type Variant = keyof typeof BREAKS | 'mixed';
@@ -55,17 +43,17 @@ const textAt = (doc: TextDocument, r: Range): string => doc.getText(r);
 const key = (d: LspDiagnostic) => `${d.code}@${d.range.start.line}:${d.range.start.character}-${d.range.end.line}:${d.range.end.character}`;
 
 async function openVariant(name: string, text: string): Promise<{ uri: string; file: string; diagnostics: LspDiagnostic[] }> {
-  const file = path.join(ws.dir, name);
+  const file = path.join(server.ws.dir, name);
   fs.writeFileSync(file, text);
   const uri = uriOf(file);
-  client.open(uri, text);
-  const published = await client.diagnosticsFor(uri, (p) => p.version === 1);
+  server.client.open(uri, text);
+  const published = await server.client.diagnosticsFor(uri, (p) => p.version === 1);
   return { uri, file, diagnostics: published.diagnostics };
 }
 
 const specs = (): { name: string; text: string }[] => [
-  { name: 'lab', text: fs.readFileSync(ws.lab, 'utf8') },
-  { name: 'demo', text: fs.readFileSync(ws.demo!, 'utf8').replace(/clock: \.\//, 'clock: ./demo/') },
+  { name: 'lab', text: fs.readFileSync(server.ws.lab, 'utf8') },
+  { name: 'demo', text: fs.readFileSync(server.ws.demo!, 'utf8').replace(/clock: \.\//, 'clock: ./demo/') },
 ];
 
 describe('every line ending', () => {
@@ -87,26 +75,26 @@ describe('every line ending', () => {
         const fromChecker = report.files[0].diagnostics.map((d) => `${d.code}@${d.line}:${d.column}`).sort();
         const fromEditor = opened.diagnostics.map((d) => `${d.code}@${d.range.start.line + 1}:${d.range.start.character + 1}`).sort();
         expect(fromChecker, `${spec.name} ${variant}`).toStrictEqual(fromEditor);
-        client.close(opened.uri);
+        server.client.close(opened.uri);
       }
-      client.close(lf.uri);
+      server.client.close(lf.uri);
     }
   });
 
   it('answers every feature on every line ending, as on LF', async () => {
-    const text = fs.readFileSync(ws.lab, 'utf8');
+    const text = fs.readFileSync(server.ws.lab, 'utf8');
     const lines = text.split('\n');
     const answers = async (uri: string) => {
       const wide = { start: { line: 0, character: 0 }, end: { line: lines.length, character: 0 } };
       const [hints, symbols, lenses] = await Promise.all([
-        client.request<unknown[]>('textDocument/inlayHint', { textDocument: { uri }, range: wide }),
-        client.request<Symbol[]>('textDocument/documentSymbol', { textDocument: { uri } }),
-        client.request<unknown[]>('textDocument/codeLens', { textDocument: { uri } }),
+        server.client.request<unknown[]>('textDocument/inlayHint', { textDocument: { uri }, range: wide }),
+        server.client.request<Symbol[]>('textDocument/documentSymbol', { textDocument: { uri } }),
+        server.client.request<unknown[]>('textDocument/codeLens', { textDocument: { uri } }),
       ]);
       const hovers: unknown[] = [];
       for (const [line, l] of lines.entries()) {
         for (const character of [2, Math.floor(l.length / 2), l.length - 1]) {
-          if (character >= 0) hovers.push(await client.request('textDocument/hover', { textDocument: { uri }, position: { line, character } }));
+          if (character >= 0) hovers.push(await server.client.request('textDocument/hover', { textDocument: { uri }, position: { line, character } }));
         }
       }
       return { hints, symbols, lenses, hovers };
@@ -115,7 +103,7 @@ describe('every line ending', () => {
     const expected = await answers(lf.uri);
     expect(expected.hints.length).toBe(3);
     for (const variant of ['crlf', 'cr', 'mixed'] as const) {
-      const logsBefore = client.logs.length;
+      const logsBefore = server.client.logs.length;
       const opened = await openVariant(`features-${variant}.wave.yaml`, withBreaks(text, variant));
       const got = await answers(opened.uri);
       expect(JSON.parse(JSON.stringify(got).replaceAll(opened.uri, lf.uri)), variant).toStrictEqual(expected);
@@ -128,19 +116,19 @@ describe('every line ending', () => {
       // Completion at every third position of every line, and one past each line's end.
       for (const [line, l] of lines.entries()) {
         for (let character = 0; character <= l.length + 1; character += character > l.length - 1 ? 1 : 3) {
-          const items = await client.request<unknown>('textDocument/completion', { textDocument: { uri: opened.uri }, position: { line, character } });
+          const items = await server.client.request<unknown>('textDocument/completion', { textDocument: { uri: opened.uri }, position: { line, character } });
           expect(Array.isArray(items)).toBe(true);
         }
       }
-      expect(client.logs.slice(logsBefore).filter((m) => m.includes('failed')), variant).toStrictEqual([]);
-      client.close(opened.uri);
+      expect(server.client.logs.slice(logsBefore).filter((m) => m.includes('failed')), variant).toStrictEqual([]);
+      server.client.close(opened.uri);
     }
-    client.close(lf.uri);
+    server.client.close(lf.uri);
   }, 60_000);
 
   it('applies quick fixes with the file’s own line breaks', async () => {
     // Without `jitter:` on the beacon, allowing a fractional divider adds a line.
-    const text = fs.readFileSync(ws.lab, 'utf8').replace('    jitter: forbid\n', '');
+    const text = fs.readFileSync(server.ws.lab, 'utf8').replace('    jitter: forbid\n', '');
     let applied = 0;
     let inserted = 0;
     for (const variant of ['lf', 'crlf', 'cr', 'mixed'] as const) {
@@ -148,7 +136,7 @@ describe('every line ending', () => {
       const opened = await openVariant(`fixes-${variant}.wave.yaml`, original);
       const doc = TextDocument.create(opened.uri, 'yaml', 1, original);
       for (const d of opened.diagnostics) {
-        const actions = await client.request<Action[]>('textDocument/codeAction', { textDocument: { uri: opened.uri }, range: d.range, context: { diagnostics: [d] } });
+        const actions = await server.client.request<Action[]>('textDocument/codeAction', { textDocument: { uri: opened.uri }, range: d.range, context: { diagnostics: [d] } });
         for (const action of actions) {
           const edits = action.edit?.changes?.[opened.uri] ?? [];
           if (edits.length === 0) continue;
@@ -165,7 +153,7 @@ describe('every line ending', () => {
           }
         }
       }
-      client.close(opened.uri);
+      server.client.close(opened.uri);
     }
     expect(applied).toBeGreaterThanOrEqual(8);
     expect(inserted).toBeGreaterThanOrEqual(4);

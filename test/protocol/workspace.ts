@@ -3,7 +3,8 @@
 import * as fs from 'node:fs';
 import * as os from 'node:os';
 import * as path from 'node:path';
-import { ROOT } from '../support/lsp-client';
+import { afterAll, beforeAll } from 'vitest';
+import { ensureBuilt, LspClient, ROOT, type ClientOptions } from '../support/lsp-client';
 
 export const FIXTURES = path.join(ROOT, 'test', 'protocol', 'fixtures');
 export const EXAMPLES = path.join(ROOT, 'examples');
@@ -33,4 +34,27 @@ export function lineOf(text: string, needle: string): number {
   const index = text.split('\n').findIndex((l) => l.includes(needle));
   if (index < 0) throw new Error(`no line contains ${needle}`);
   return index;
+}
+
+/** A server on a fresh scratch copy for one test file: started before its tests, stopped after. */
+export function serverOnScratch(options: Omit<ClientOptions, 'folders'> = {}, prepare: (dir: string) => void = () => {}) {
+  const held: { client?: LspClient; ws?: ReturnType<typeof scratchCopy> } = {};
+  beforeAll(async () => {
+    ensureBuilt();
+    held.ws = scratchCopy();
+    prepare(held.ws.dir);
+    held.client = await LspClient.start({ ...options, folders: [held.ws.dir] });
+  });
+  afterAll(async () => {
+    await held.client?.stop();
+    held.ws?.remove();
+  });
+  return {
+    get client(): LspClient {
+      return held.client!;
+    },
+    get ws(): ReturnType<typeof scratchCopy> {
+      return held.ws!;
+    },
+  };
 }

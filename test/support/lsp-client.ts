@@ -145,6 +145,7 @@ export class LspClient {
     const note = (method: string) => this.serverRequests.push(method);
     c.onRequest('workspace/configuration', (params: { items: { section?: string }[] }) => {
       note('workspace/configuration');
+      this.beforeAnswer('workspace/configuration');
       return params.items.map(() => this.settings);
     });
     for (const method of ['client/registerCapability', 'client/unregisterCapability', 'window/workDoneProgress/create', 'workspace/inlayHint/refresh', 'workspace/diagnostic/refresh', 'workspace/codeLens/refresh', 'workspace/semanticTokens/refresh']) {
