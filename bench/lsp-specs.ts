@@ -1,20 +1,20 @@
-// The invented board and wave specs the language-server benchmark opens (bench/lsp.ts). The clock
-// figures are the benchmark's own scenery, not any real part's defaults.
+// The invented board and wave specs the language-server benchmark opens (bench/lsp.ts).
 
 import { seededRandom as prng } from '../test/support/seeded';
 
 const SHAPES = ['sine', 'square', 'triangle', 'sawtooth'] as const;
 
-export const BENCH_CLOCK = `# bench.clock.yaml — an invented board for the language-server benchmark.
-system-clock: 144 MHz
+export const BENCH_CLOCK = `# bench.clock.yaml — an invented board for the language-server benchmark (no real part's
+# defaults): the planner benchmark's 245.76 MHz clock and 18-bit divider with 6 fraction bits.
+system-clock: 245.76 MHz
 divider:
-  integer: { min: 1, max: 16383 }
+  integer: { min: 1, max: 262143 }
   fraction-bits: 6
 dac:
-  bits: 10
+  bits: 12
   sample-bytes: 2
-  full-scale: 2.5 V
-  max-sample-rate: 24 MHz
+  full-scale: 3.3 V
+  max-sample-rate: 25 MHz
 memory:
   budget: 4 MiB
   table-length: { min: 32, max: 8192 }
