@@ -10,7 +10,7 @@ import { type QuantityMeta, defaultTextRegistry, quantityRegistry } from './sche
 
 export type FileKind = 'wave' | 'clock';
 
-export type ValueType = 'object' | 'map' | 'list' | 'text' | 'whole number' | 'true/false' | 'choice' | 'quantity';
+export type ValueType = 'object' | 'map' | 'list' | 'text' | 'whole number' | 'number' | 'true/false' | 'choice' | 'quantity';
 
 export interface KeyInfo {
   /** Dotted path; `*` stands for any output name, e.g. `outputs.*.frequency`. */
@@ -103,8 +103,8 @@ function describe(declared: z.ZodType, path: readonly (string | number)[], pathT
     info.type = 'true/false';
     info.values = ['true', 'false'];
   } else if (def.type === 'number') {
-    info.type = 'whole number';
     const n = inner as z.ZodNumber;
+    info.type = n.isInt ? 'whole number' : 'number';
     info.min = n.minValue ?? undefined;
     info.max = n.maxValue ?? undefined;
   }

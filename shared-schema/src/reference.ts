@@ -27,7 +27,8 @@ function typeText(k: KeyInfo): string {
       return `${q.what.replace(/^an? /, '')}: ${units}; ${plain}`;
     }
     case 'whole number':
-      return `whole number ${k.min ?? ''}–${k.max ?? ''}`;
+    case 'number':
+      return `${k.type} ${k.min ?? ''}–${k.max ?? ''}`;
     case 'list':
       return k.items ? `list of ${typeText(k.items)}` : 'list';
     case 'choice':

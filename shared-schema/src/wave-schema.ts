@@ -110,6 +110,31 @@ export const outputSchema = z.strictObject({
   plan: optional(pinnedPlanSchema, 'A plan written by hand: waveplan checks it instead of searching for one.'),
 }).describe('One output: the waveform, its frequency and tolerance, and the limits its plan must keep.');
 
+/** Outputs tied together: one sample clock, and with `lock: phase` one table length and stated phases. */
+const groupSchema = z
+  .strictObject({
+    description: optional(z.string(), 'Free text about this group; waveplan shows it and does not read it.'),
+    outputs: required(
+      z.array(z.string().regex(OUTPUT_NAME_PATTERN)).min(2).max(16),
+      'The outputs of the group by name, e.g. `[coil, reference]`; the first is the phase reference. An output belongs to at most one group.',
+    ),
+    lock: optional(
+      z.enum(['sample-clock', 'phase']),
+      '`sample-clock`: the outputs share one divider (two DAC channels paced by one timer or one DMA request), each with its own table; `phase`: they also share the table length, keep their frequencies in the exact ratio of their targets, and hold the stated phase offsets (a quadrature pair, a three-phase set, a harmonic family).',
+      'sample-clock',
+    ),
+    'phase-offsets': optional(
+      z.record(z.string().regex(OUTPUT_NAME_PATTERN), z.number().min(-360).max(360).describe('Degrees this member runs ahead of the first output.')),
+      'With `lock: phase`: each member\'s phase in degrees ahead of the first output, e.g. `{ reference: 90 }`; unlisted members are in phase (0). Realised as a whole number of samples; the phase error that leaves is reported in degrees and seconds.',
+    ),
+    'offsets-as': optional(
+      z.enum(['table-rotation', 'start-offset']),
+      '`table-rotation`: each member gets its own table, rotated by its offset; `start-offset`: the members share one table and the firmware starts each DMA channel that many samples in (only for members with the same waveform and frequency).',
+      'table-rotation',
+    ),
+  })
+  .describe('One group of outputs, by name.');
+
 export const waveSchema = z
   .strictObject({
     description: optional(z.string(), 'Free text about these outputs; waveplan shows it and does not read it.'),
@@ -118,8 +143,13 @@ export const waveSchema = z
       z.record(z.string().regex(OUTPUT_NAME_PATTERN), outputSchema),
       'The outputs by name (a letter or _, then letters, digits, _ or -); each is planned on its own, and their tables share the memory budget.',
     ),
+    groups: optional(
+      z.record(z.string().regex(OUTPUT_NAME_PATTERN), groupSchema),
+      'Outputs planned together, by group name: sharing one sample clock, or phase-locked with stated offsets.',
+    ),
   })
   .describe('A waveplan wave file: the outputs one board produces, planned against its clock file.');
 
 export type WaveFile = z.infer<typeof waveSchema>;
 export type OutputEntry = z.infer<typeof outputSchema>;
+export type GroupEntry = z.infer<typeof groupSchema>;

@@ -28,6 +28,7 @@ interface JsonOutput {
   tableSpan: 'open' | 'closed';
   plan: { achievedHz: number; cycles: number; tableLength: number; seamOk: boolean; seamJumpLsb: number; jitterFree: boolean };
   table: number[];
+  phase?: { rotation: number; sharesTableOf: string | null };
 }
 
 function parseReplay(text: string): Map<string, Measured> {
@@ -128,7 +129,9 @@ describe.each(cases.map(([name]) => name))('%s', (name) => {
       const last = o.table[n - 1];
       // The sample a continuous phase would play after the last one, from the shape definitions.
       const intervals = o.tableSpan === 'closed' ? n - 1 : n;
-      const phase = ((o.plan.cycles * n) / intervals) % 1;
+      // A phase-locked member's table is rotated: sample i holds phase M·(i + k)/N (derived).
+      const shift = o.phase && o.phase.sharesTableOf === null ? o.phase.rotation : 0;
+      const phase = ((o.plan.cycles * (n + shift)) / intervals) % 1;
       const top = 2 ** dacBits - 1;
       const { amplitudeVpp, offsetV, duty } = o.waveform;
       const next = Math.min(top, Math.max(0, Math.round((offsetV + (amplitudeVpp / 2) * unit(o.shape, phase, duty)) / (fullScaleV / 2 ** dacBits))));

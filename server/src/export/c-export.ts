@@ -104,7 +104,26 @@ function outputDefines(o: ExportedOutput, ids: OutputIdentifiers, model: ExportM
   ];
   rows.push(...stageRows(u, p.dividerStages));
   if (model.hardware.memory.powerOfTwo) rows.push([`${u}_TABLE_ALIGN`, cUnsigned(ringAlignment(p.tableBytes)), 'bytes; the DMA ring wraps on it']);
+  rows.push(...phaseDefines(o, u));
   return defines(rows);
+}
+
+/** A phase-locked member's offset: the rotation (or start offset) in samples and the phase it makes. */
+function phaseDefines(o: ExportedOutput, u: string): Array<[string, string, string?]> {
+  const ph = o.phase;
+  if (!ph) return [];
+  const how = ph.sharesTableOf ? `start this DMA channel that many samples into ${ph.sharesTableOf}'s table` : 'the table is rotated by that many samples';
+  return [
+    [`${u}_PHASE_OFFSET_SAMPLES`, cUnsigned(ph.rotation), `group ${ph.group}: ${how}`],
+    [`${u}_PHASE_DEG`, cDouble(ph.realisedDeg), `ahead of the group's first output; asked ${ph.offsetDeg} deg, error ${cDouble(ph.errorDeg)} deg (${formatSeconds(Math.abs(ph.errorS))})`],
+  ];
+}
+
+/** The table's declaration, or for a start-offset member the name of the table it plays. */
+function tableDeclaration(o: ExportedOutput, id: OutputIdentifiers, ids: Map<string, OutputIdentifiers>, type: string): string {
+  const shared = o.phase?.sharesTableOf;
+  if (shared && ids.has(shared)) return `#define ${id.lower}_table ${ids.get(shared)!.lower}_table /* one table, started ${id.upper}_PHASE_OFFSET_SAMPLES in */`;
+  return `extern const ${type} ${id.lower}_table[${id.upper}_TABLE_LENGTH];`;
 }
 
 export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, OutputIdentifiers>, forced: boolean): CFile[] {
@@ -140,7 +159,7 @@ export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, Ou
   );
   for (const o of exported) {
     const id = ids.get(o.analysis.name)!;
-    h.push(outputComment(o, id, model), outputDefines(o, id, model), `extern const ${type} ${id.lower}_table[${id.upper}_TABLE_LENGTH];`, '');
+    h.push(outputComment(o, id, model), outputDefines(o, id, model), tableDeclaration(o, id, ids, type), '');
   }
   for (const name of model.unplanned) h.push(block([`${name}: NOT EXPORTED - no plan exists for this output.`]), '');
   h.push('/* Every exported output, for table-driven set-up code: X(lower_name, UPPER_NAME). */');
@@ -154,7 +173,7 @@ export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, Ou
 
   const c: string[] = [banner(spec, sourceName, forced), '', `#include "${headerName}"`, ''];
   const perLine = dac.sampleBytes === 4 ? 8 : 12;
-  for (const o of exported) {
+  for (const o of exported.filter((x) => !x.phase?.sharesTableOf)) {
     const id = ids.get(o.analysis.name)!;
     const align = aligned ? `WAVEPLAN_ALIGN(${id.upper}_TABLE_ALIGN) ` : '';
     c.push(

@@ -48,6 +48,7 @@ export function exportJson(specs: readonly ExportedSpec[]): string {
         alignBytes: model.hardware.memory.powerOfTwo ? ringAlignment(o.plan.tableBytes) : null,
         clippedSamples: o.clipped,
         clippedByLsb: o.clipLsb,
+        ...(o.phase ? { phase: o.phase } : {}),
         table: placeholder(o.codes),
       })),
       unplanned: model.unplanned,

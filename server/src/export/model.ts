@@ -16,6 +16,20 @@ export interface ExportedOutput {
   clipped: number;
   /** The largest distance, in LSB, between a clipped sample's ideal code and its rail. */
   clipLsb: number;
+  /** A member of a phase-locked group: its offset as realised (tables are rotated by it, or shared). */
+  phase?: MemberPhase;
+}
+
+export interface MemberPhase {
+  group: string;
+  /** Samples the table is rotated by (table-rotation) or the DMA channel starts in (start-offset). */
+  rotation: number;
+  offsetDeg: number;
+  realisedDeg: number;
+  errorDeg: number;
+  errorS: number;
+  /** start-offset: the member whose table this one plays; null when it has its own. */
+  sharesTableOf: string | null;
 }
 
 export interface ExportModel {
@@ -52,10 +66,32 @@ export function exportModel(spec: LoadedSpec): ExportModel | null {
       continue;
     }
     const span = spanOf(o);
-    const codes = buildTable(o.request.waveform, hardware.dac, plan.tableLength, plan.cycles, span);
-    outputs.push({ analysis: o, plan, span, codes, ...clipping(o, hardware.dac, plan, span) });
+    const phase = memberPhase(spec, o.name);
+    const built = buildTable(o.request.waveform, hardware.dac, plan.tableLength, plan.cycles, span);
+    const codes = phase && phase.sharesTableOf === null && phase.rotation !== 0 ? rotated(built, phase.rotation) : built;
+    outputs.push({ analysis: o, plan, span, codes, ...clipping(o, hardware.dac, plan, span), ...(phase ? { phase } : {}) });
   }
   return { hardware, outputs, unplanned };
+}
+
+/** The member's offset in its phase-locked group, if it is in one. */
+function memberPhase(spec: LoadedSpec, name: string): MemberPhase | undefined {
+  for (const g of spec.analysis.groups ?? []) {
+    const i = g.members.indexOf(name);
+    if (i < 0 || !g.phases) continue;
+    const p = g.phases[i]!;
+    const sharesTableOf = g.offsetsAs === 'start-offset' && i > 0 ? g.members[0]! : null;
+    return { group: g.name, rotation: p.rotation, offsetDeg: p.offsetDeg, realisedDeg: p.realisedDeg, errorDeg: p.errorDeg, errorS: p.errorS, sharesTableOf };
+  }
+  return undefined;
+}
+
+/** table[(i + k) mod N]: the waveform k samples ahead, so the member leads by k·M/N cycles. */
+function rotated(codes: Int32Array, k: number): Int32Array {
+  const n = codes.length;
+  const out = new Int32Array(n);
+  for (let i = 0; i < n; i++) out[i] = codes[(i + k) % n]!;
+  return out;
 }
 
 /**

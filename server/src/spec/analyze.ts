@@ -8,6 +8,7 @@ import { outputSchema, type OutputEntry, type WaveFile } from '../../../shared-s
 import type { Hardware } from '../planning/types';
 import { fitToBudget } from './board-budget';
 import { buildHardware } from './clock-model';
+import { applyGroups } from './group-model';
 import { keyRange, valueRange } from './nodes';
 import { Memo } from './memo';
 import { planEntry } from './output-plan';
@@ -125,7 +126,8 @@ function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
     if (planned.output) analysis.outputs.push(planned.output);
     usedBytes += planned.tableBytes;
   }
-  overBudget(analysis, usedBytes, hardware, outputsKey);
+  const grouped = applyGroups(analysis, data.groups, hardware, doc, src.lines);
+  overBudget(analysis, grouped ?? usedBytes, hardware, outputsKey);
 }
 
 function overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, outputsKey: Range): void {

@@ -117,6 +117,16 @@ export const CODES = {
     title: "The system clock's own error exceeds the output's tolerance",
     help: "The system clock's tolerance (`system-clock-tolerance`, the crystal's) alone is more than this output's tolerance allows, so no divider or table can meet it. Use a more accurate clock source (a tighter crystal, a TCXO) or widen the output's tolerance.",
   },
+  group: {
+    severity: 'error',
+    title: 'Group cannot be planned as written',
+    help: 'A group under `groups:` names an output that does not exist, an output already in another group, an output with a pinned plan, a phase offset for an output outside the group or without `lock: phase`, or members that cannot share one table through `start-offset` (their waveforms or frequencies differ). The message says which.',
+  },
+  'phase-offset': {
+    severity: 'warning',
+    title: 'Phase offset not realised exactly',
+    help: 'In a phase-locked group a member\'s offset is a whole number of samples of its table, so with M cycles in N samples the reachable offsets are steps of gcd(M, N)/N of a cycle. The message gives the nearest one and the error left, in degrees and seconds; a table length that divides by the offset\'s share of a cycle removes it.',
+  },
   clipping: {
     severity: 'error',
     title: 'Output clips',

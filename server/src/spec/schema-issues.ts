@@ -93,6 +93,8 @@ function wanted(info: KeyInfo | undefined): string {
       return 'a mapping of keys';
     case 'whole number':
       return `a whole number from ${info.min} to ${info.max}`;
+    case 'number':
+      return `a number from ${info.min} to ${info.max}`;
     case 'true/false':
       return '`true` or `false`';
     case 'choice':

@@ -2,6 +2,7 @@
 // reads. Plain data; positions are 0-based line/character (UTF-16), as in LSP.
 
 import type { Rational } from '../../../shared-schema/src/rational';
+import type { PhaseResult } from '../planning/groups';
 import type { Hardware, OutputPlanning, OutputRequest } from '../planning/types';
 
 export interface Position {
@@ -56,6 +57,17 @@ export interface OutputAnalysis {
   planning: OutputPlanning;
 }
 
+/** A group of outputs planned together (see planning/groups.ts). */
+export interface GroupAnalysis {
+  name: string;
+  lock: 'sample-clock' | 'phase';
+  offsetsAs: 'table-rotation' | 'start-offset';
+  /** Member output names, the first is the phase reference. */
+  members: string[];
+  /** Phase-locked groups: each member's offset as realised (null without a plan). */
+  phases: PhaseResult[] | null;
+}
+
 export interface Analysis {
   /** Absolute file-system path of the analysed file. */
   path: string;
@@ -69,6 +81,8 @@ export interface Analysis {
   hardware: Hardware | null;
   /** Wave specs: the absolute path `clock:` resolves to, if any. */
   clockPath: string | null;
+  /** Groups of outputs planned together (wave specs with `groups:`). */
+  groups?: GroupAnalysis[];
   /** Total table bytes of all planned outputs against hardware.memory.budgetBytes. */
   memory: { usedBytes: number; budgetBytes: number } | null;
 }

@@ -28,6 +28,8 @@ function readFrame(text: string): FrameReading | null {
   // Without its pieces `outputs:` must be empty; anything else there (a `- ` line at the margin
   // reads as a list under it) is laid out in a way the split does not cover.
   if (!data || typeof data !== 'object' || Array.isArray(data) || !Object.hasOwn(data, 'outputs') || data.outputs !== null) return null;
+  // Groups tie outputs together, so their plans cannot be read piece by piece.
+  if (Object.hasOwn(data, 'groups')) return null;
   // The outputs themselves are checked piece by piece; the frame must have no schema issue of its own.
   if (!waveSchema.safeParse({ ...data, outputs: {} }).success) return null;
   const outputsKey = keyRange(src.doc, src.lines, ['outputs']);
