@@ -15,6 +15,7 @@ import type { OutputAnalysis } from '../spec/types';
 import { REPORT_CSS } from './html-style';
 import type { LoadedSpec } from './load';
 import { spanOf } from './model';
+import { clockTreeSection } from './clock-report';
 
 const CAUTION =
   'Plans are arithmetic on the figures in the spec. Before connecting an amplifier, transducer or mains-powered ' +
@@ -112,6 +113,7 @@ function specSection(i: number, spec: LoadedSpec): string {
     `<section class="spec"><h2>${esc(spec.path)}</h2>`,
     `<p class="meta">clock ${esc(spec.clockPath ?? '(unresolved)')} · sha256 ${spec.contentHash}</p>`,
     hw ? hardwareList(hw) : '<p class="none">The clock file could not be read; see the findings.</p>',
+    clockTreeSection(a),
   ];
   if (a.memory) {
     const segments = a.outputs.filter((o) => o.planning.plan).map((o) => ({ name: o.name, bytes: o.planning.plan!.tableBytes }));

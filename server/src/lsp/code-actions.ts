@@ -18,6 +18,7 @@ import { leavesInPlace, previewFix, quickFix, resultClause, type Recheck } from 
 import { jitterFreeNeighbours } from './retarget';
 import { SCHEMA_FIX_CODES, schemaFixes } from './schema-fixes';
 import { checkCancelled } from './safe';
+import { retuneActions } from './retune';
 
 const PREFIXES: ReadonlyArray<[string, bigint]> = [
   ['GHz', 1_000_000_000n],
@@ -180,6 +181,8 @@ export interface FixContext {
   recheck: Recheck;
   /** The document's syntax tree (parsed once per version). */
   tree: () => Document;
+  /** Reads another spec file (the clock file a retune edits), as the analysis does. */
+  readFile?: (path: string) => string | undefined;
 }
 
 export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: Diagnostic[], token: CancellationToken, context: FixContext): CodeAction[] {
@@ -194,6 +197,7 @@ export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: 
       continue;
     }
     if (!hw || analysis.kind !== 'wave') continue;
+    if (context.readFile) actions.push(...retuneActions(analysis, d, context.readFile));
     if (d.code === 'over-budget' || d.code === 'fitted-to-budget') {
       actions.push(...budgetFixes(doc, analysis, d, token, recheck));
       continue;

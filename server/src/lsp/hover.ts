@@ -6,6 +6,7 @@ import type { TextDocument } from 'vscode-languageserver-textdocument';
 import { lookupKey, type KeyInfo } from '../../../shared-schema/src/keys';
 import type { Analysis } from '../spec/types';
 import { clockBudgetLine } from './clock-views';
+import { systemClockHover } from './clock-hover';
 import { memoryLine, outputCard } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { quantityViews } from './quantity-views';
@@ -49,10 +50,11 @@ function valueHover(analysis: Analysis, at: NodeAtCursor): string | undefined {
   return others && others.length > 0 ? `\`${written}\` = ${others.join(' = ')}` : undefined;
 }
 
-export function hover(doc: TextDocument, tree: SyntaxTree, analysis: Analysis, position: Position, pictures: boolean): Hover | null {
+export function hover(doc: TextDocument, tree: SyntaxTree, analysis: Analysis, position: Position, pictures: boolean, readers?: () => Analysis[]): Hover | null {
   const at = tree.nodeAt(doc.offsetAt(position));
   if (!at) return null;
   let markdown: string | undefined;
+  const clockHover = analysis.kind === 'clock' && at.path.length === 1 && at.path[0] === 'system-clock' && readers ? systemClockHover(analysis, readers()) : undefined;
   if (at.role === 'key' && analysis.kind === 'wave' && at.path.length === 2 && at.path[0] === 'outputs') {
     markdown = outputHover(analysis, String(at.path[1]), pictures);
   } else if (at.role === 'key') {
@@ -61,6 +63,7 @@ export function hover(doc: TextDocument, tree: SyntaxTree, analysis: Analysis, p
   } else {
     markdown = valueHover(analysis, at);
   }
+  if (clockHover) markdown = markdown ? `${markdown}\n\n${clockHover}` : clockHover;
   if (!markdown) return null;
   return {
     contents: { kind: 'markdown', value: markdown },

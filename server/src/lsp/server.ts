@@ -188,7 +188,9 @@ export function startServer(): void {
       const at = snapshot(params.textDocument.uri);
       if (!at) return null;
       const { hoverPictures } = await settings.get(at.doc.uri);
-      return hover(at.doc, syntaxOf(at.analysis), at.analysis, params.position, hoverPictures);
+      // Hover on a clock file's system-clock ranks its clocks for the wave specs that read it.
+      const readers = () => deps.dependents(uriToPath(at.doc.uri)).flatMap((w) => (snapshot(docs.uriOfPath(w))?.analysis ?? docs.analyzeClosed(w)) ?? []);
+      return hover(at.doc, syntaxOf(at.analysis), at.analysis, params.position, hoverPictures, readers);
     }),
   );
 
@@ -196,7 +198,8 @@ export function startServer(): void {
     guard(log, 'code actions', [], (params, token) => {
       const at = snapshot(params.textDocument.uri);
       if (!at) return [];
-      return codeActions(at.doc, at.analysis, params.context.diagnostics, token, { recheck: (text) => docs.analyzeEdited(at.doc.uri, text), tree: () => trees.of(at.doc) });
+      const readFile = (path: string) => docs.hostFor(uriToPath(at.doc.uri)).readFile(path);
+      return codeActions(at.doc, at.analysis, params.context.diagnostics, token, { recheck: (text) => docs.analyzeEdited(at.doc.uri, text), tree: () => trees.of(at.doc), readFile });
     }),
   );
 
