@@ -5,8 +5,8 @@ import { describe, expect, it } from 'vitest';
 import { analyze } from '../../../server/src/spec/analyze';
 import { retuneActions } from '../../../server/src/lsp/retune';
 import { systemClockHover } from '../../../server/src/lsp/clock-hover';
-import type { Diagnostic } from 'vscode-languageserver/node';
 
+type Diagnostic = Parameters<typeof retuneActions>[1];
 const asLsp = (d: { code: string; message: string; range: Diagnostic['range'] }): Diagnostic => ({ range: d.range, message: d.message, code: d.code, source: 'waveplan' });
 
 const clockText = (rated: string, tolerance = '') => `system-clock: 100 MHz
