@@ -19,8 +19,9 @@ const PLANNING_CODES = new Set(['no-plan', 'out-of-tolerance', 'fractional-plan'
 
 const planned = new Memo<string, GroupPlanning>(64);
 
+const waveText = (o: OutputAnalysis): string => JSON.stringify(o.request.waveform, (_, v: unknown) => (typeof v === 'bigint' ? v.toString() : v));
 const sameWave = (a: OutputAnalysis, b: OutputAnalysis): boolean =>
-  a.request.targetHz.num === b.request.targetHz.num && a.request.targetHz.den === b.request.targetHz.den && JSON.stringify(a.request.waveform) === JSON.stringify(b.request.waveform);
+  a.request.targetHz.num === b.request.targetHz.num && a.request.targetHz.den === b.request.targetHz.den && waveText(a) === waveText(b);
 
 /** Plans every group and returns the table bytes the outputs then take together. */
 export function applyGroups(analysis: Analysis, groups: Record<string, GroupEntry> | undefined, hw: Hardware, doc: Document.Parsed, lines: LineIndex): number | null {
