@@ -129,7 +129,7 @@ describe('the three strategies agree where the oracle is too slow (walk = the se
     expect(mismatches.slice(0, 10)).toEqual([]);
   });
 
-  it('on the full benchmark domain (125 MHz, I 1…65535, N 16…32768, 8 fraction bits) for low targets', () => {
+  it('on a large domain (125 MHz, I 1…65535, N 16…32768, 8 fraction bits) for low targets', () => {
     const board = (fractionBits: number): Hardware => ({
       systemClockHz: rat(125_000_000),
       divider: { integerMin: 1, integerMax: 65535, fractionBits },
