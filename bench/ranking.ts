@@ -4,7 +4,8 @@
 // Run: npx tsx bench/ranking.ts   (least of REPEAT timings per target, both timed alternately)
 
 import { rat, parseDecimal } from '../shared-schema/src/rational';
-import { planOutputUncached } from '../server/src/planning/choose';
+import { planOutput, planOutputUncached, planningCache } from '../server/src/planning/choose';
+import { stepsPerOutput } from '../server/src/planning/work';
 import { nearestJitterFree } from '../server/src/planning/search';
 import { nearestWholeCycle } from '../server/src/planning/whole';
 import type { Hardware, OutputRequest } from '../server/src/planning/types';
@@ -63,4 +64,19 @@ for (const shape of ['sine', 'square'] as const) {
   console.log(`${shape}, ${TARGETS} targets 1 Hz…2 MHz, 125 MHz, I 1…65535 (8 fraction bits), N 16…32768, ±50 ppm:`);
   console.log(line('  nearest plan alone (the search before)', before));
   console.log(line('  planOutput: ranking + figures (now)', after));
+  // Within the share of a 500-output file's work (planning/work.ts), realistic outputs still finish.
+  planningCache.clear();
+  const share = stepsPerOutput(500);
+  const limited = reqs.filter((r) => planOutput(hw, r, share).plan?.searchLimited).length;
+  console.log(`  proven within a 500-output file's share of ${share} steps: ${reqs.length - limited}/${reqs.length}`);
+}
+
+// The fractional search runs only when its plan is read (OutputPlanning.bestFractional): the same
+// outputs with and without reading it, as every output paid before it was lazy.
+{
+  const reqs = requests('sine');
+  const lazyMs = time(reqs, (r) => planOutputUncached(hw, r));
+  const eagerMs = time(reqs, (r) => planOutputUncached(hw, r).bestFractional);
+  const sum = (xs: number[]): number => xs.reduce((a, b) => a + b, 0);
+  console.log(`fractional search only when read: ${sum(lazyMs).toFixed(1)} ms for ${reqs.length} sines, ${sum(eagerMs).toFixed(1)} ms reading bestFractional too (×${(sum(eagerMs) / sum(lazyMs)).toFixed(2)})`);
 }

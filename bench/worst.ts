@@ -40,6 +40,10 @@ const many: string[] = [];
 const COUNT = Number(process.env.COUNT ?? 499);
 for (let i = 0; i < COUNT; i++) many.push(output(`tone-${i}`, 'sine', `${(0.001 + i * 0.0137).toFixed(7)} Hz`, i % 2 ? '    jitter: allow\n' : ''));
 cases.push([`${COUNT} sines at low targets`, spec(many)]);
+// Targets with more digits than the clock resolves exactly: every search runs to its limit.
+const awkward: string[] = [];
+for (let i = 0; i < COUNT; i++) awkward.push(output(`odd-${i}`, 'sine', `${(0.0012345678901 * (1 + i / 7)).toPrecision(14)} Hz`, '    tolerance: 0.000001 ppm\n'));
+cases.push([`${COUNT} sines at awkward low targets`, spec(awkward)]);
 for (const shape of ['square', 'triangle', 'sawtooth']) cases.push([`one ${shape} at 1.2345 Hz`, spec([output('x', shape, '1.2345 Hz')])]);
 cases.push(['an exact target on the 2^32 divider', spec([output('x', 'sine', '1 Hz', '    tolerance: 0 ppm\n')])]);
 

@@ -36,9 +36,10 @@ function fewerSamples(analysis: Analysis, o: OutputAnalysis, smallest: boolean):
   if (menu === null) return null;
   const frontier = menu.frontier();
   const now = o.planning.plan!.tableLength;
-  const below = frontier.filter((p) => p.n < now);
-  const pick = smallest ? below[0] : below[below.length - 1];
-  return pick ? menu.planOf(pick) : null;
+  let below = 0;
+  while (below < frontier.length && frontier.n(below) < now) below++;
+  if (below === 0) return null;
+  return menu.planOf(frontier.at(smallest ? 0 : below - 1));
 }
 
 function fewerSamplesFix(doc: TextDocument, analysis: Analysis, o: OutputAnalysis, d: Diagnostic, recheck: Recheck, smallest: boolean): CodeAction | undefined {

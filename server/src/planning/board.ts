@@ -13,7 +13,7 @@
 import { type Rational, cmp, div, mul, neg, rat, toNumber } from '../../../shared-schema/src/rational';
 import { type Ladder, firstExact, largestFeasible } from './ladder';
 import { type Preference, bestRanked } from './ranking';
-import type { MenuPlan, ShrinkMenu } from './shrink';
+import { Frontier, type MenuPlan, type ShrinkMenu, menuSteps } from './shrink';
 import type { Plan } from './types';
 
 export interface BoardOutput {
@@ -57,9 +57,10 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
   if (own <= budgetBytes) return { over: false, fits: true, plans: keep, totalBytes: own, leastBytes: own, minShare: null, worstErrorShare: null, complete: true };
   const fixed = outputs.reduce((t, o) => t + (o.menu === null ? o.bytes : 0), 0);
   const menus = outputs.map((o) => o.menu);
-  const frontiers = menus.map((m) => (m === null ? [] : m.frontier()));
+  const steps = menuSteps(menus.filter((m) => m !== null).length);
+  const frontiers = menus.map((m) => (m === null ? new Frontier() : m.frontier(steps)));
   const bytesOf = (i: number, n: number): number => n * menus[i]!.sampleBytes;
-  const least = fixed + frontiers.reduce((t, f, i) => t + (f.length > 0 ? bytesOf(i, f[0]!.n) : 0), 0);
+  const least = fixed + frontiers.reduce((t, f, i) => t + (f.length > 0 ? bytesOf(i, f.n(0)) : 0), 0);
   const complete = (): boolean => menus.every((m) => m === null || m.complete);
   if (least > budgetBytes) {
     return { over: true, fits: false, plans: keep, totalBytes: own, leastBytes: least, minShare: null, worstErrorShare: null, complete: complete() };
@@ -69,11 +70,9 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
   const shareLadder = (i: number): Ladder => {
     const f = frontiers[i]!;
     const ref = toNumber(menus[i]!.sRef);
-    return {
-      approx: Float64Array.from(f, (p) => Math.min(1, p.n / p.m / ref)),
-      exact: (k) => shareOf(menus[i]!, f[k]!),
-      bytes: (k) => bytesOf(i, f[k]!.n),
-    };
+    const approx = new Float64Array(f.length);
+    for (let k = 0; k < f.length; k++) approx[k] = Math.min(1, f.n(k) / f.m(k) / ref);
+    return { approx, exact: (k) => shareOf(menus[i]!, f.at(k)), bytes: (k) => bytesOf(i, f.n(k)) };
   };
   const live = menus.flatMap((m, i) => (m === null ? [] : [i]));
   const shareLadders = new Map(live.map((i) => [i, shareLadder(i)] as const));
@@ -84,13 +83,13 @@ export function fitBoard(outputs: readonly BoardOutput[], budgetBytes: number): 
   // 2. The largest error share, with every output at S ≥ σ·S_own: each staircase falls in error
   // share as its bytes rise, so minus the share rises.
   const floors = menus.map((m) => (m === null ? null : mul(sigma, m.sRef)));
-  const starts = menus.map((m, i) => (m === null ? null : frontiers[i]![startIndex(i)]!));
+  const starts = menus.map((m, i) => (m === null ? null : frontiers[i]!.at(startIndex(i))));
   const atSigma = starts.reduce((t, p, i) => (p === null ? t : t + bytesOf(i, p.n)), fixed);
   // No output may take more than the room the others leave at their fewest bytes for σ.
   const stairs = menus.map((m, i) => {
     if (m === null) return [];
     const room = Math.floor((budgetBytes - atSigma) / m.sampleBytes) + starts[i]!.n;
-    return m.staircase(floors[i]!, starts[i]!, room);
+    return m.staircase(floors[i]!, starts[i]!, room, steps);
   });
   const errorLadders = new Map(live.map((i) => {
     const st = stairs[i]!;

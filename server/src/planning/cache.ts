@@ -3,6 +3,7 @@
 
 import type { Rational } from '../../../shared-schema/src/rational';
 import type { Hardware, OutputPlanning, OutputRequest } from './types';
+import { OUTPUT_STEPS, StepAccount, withAccount } from './work';
 
 const q = (r: Rational): string => `${r.num}/${r.den}`;
 
@@ -25,9 +26,21 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
   ].join('|');
 }
 
-/** Least-recently-used memo: a Map keeps insertion order, so the first key is the oldest. */
+interface Entry {
+  value: OutputPlanning;
+  /** Steps the planning took, whether it ran dry, and the limit it ran under. */
+  used: number;
+  limited: boolean;
+  limit: number;
+}
+
+/**
+ * Least-recently-used memo: a Map keeps insertion order, so the first key is the oldest. A result
+ * stands for a step limit when it is what planning under that limit gives: a plan that finished
+ * within L steps is the plan under every limit ≥ L; one that ran dry only under its own limit.
+ */
 export class PlanningCache {
-  private readonly entries = new Map<string, OutputPlanning>();
+  private readonly entries = new Map<string, Entry>();
   hits = 0;
   misses = 0;
 
@@ -37,17 +50,19 @@ export class PlanningCache {
     return this.entries.size;
   }
 
-  getOrCompute(key: string, compute: () => OutputPlanning): OutputPlanning {
+  getOrCompute(key: string, compute: () => OutputPlanning, limit = OUTPUT_STEPS): OutputPlanning {
     const found = this.entries.get(key);
-    if (found !== undefined) {
+    if (found !== undefined && (found.limited ? found.limit === limit : found.used <= limit)) {
       this.hits++;
       this.entries.delete(key);
       this.entries.set(key, found);
-      return found;
+      return found.value;
     }
     this.misses++;
-    const value = compute();
-    this.entries.set(key, value);
+    const account = new StepAccount(limit);
+    const value = withAccount(account, compute);
+    this.entries.delete(key);
+    this.entries.set(key, { value, used: account.used, limited: account.limited, limit });
     if (this.entries.size > this.capacity) this.entries.delete(this.entries.keys().next().value!);
     return value;
   }

@@ -9,6 +9,7 @@
 
 import { type Rational, abs, cmp, isInteger, sign } from '../../../shared-schema/src/rational';
 import { PlanningCache, planningKey } from './cache';
+import { OUTPUT_STEPS } from './work';
 import { withinWorstCase } from './clock-error';
 import { jitterFreeDomain, fractionalDomain } from './domain';
 import { describePlan } from './figures';
@@ -26,9 +27,12 @@ export const planningCache = new PlanningCache(1000);
 const within = (plan: Plan | PlanFigures | null, toleranceHz: Rational, clockTolerance?: Rational): boolean =>
   plan !== null && withinWorstCase(plan, toleranceHz, clockTolerance);
 
-/** Plans one output (memoised; the result must be treated as read-only). */
-export function planOutput(hw: Hardware, req: OutputRequest): OutputPlanning {
-  return planningCache.getOrCompute(planningKey(hw, req), () => planOutputUncached(hw, req));
+/**
+ * Plans one output (memoised; the result must be treated as read-only) within `steps` steps of
+ * search work (work.ts): a file shares its budget among its outputs with stepsPerOutput.
+ */
+export function planOutput(hw: Hardware, req: OutputRequest, steps = OUTPUT_STEPS): OutputPlanning {
+  return planningCache.getOrCompute(planningKey(hw, req), () => planOutputUncached(hw, req), steps);
 }
 
 /** What the ranking prefers for this output. The duty counts only for whole-S square tables. */

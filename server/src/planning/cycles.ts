@@ -23,6 +23,7 @@ import { gcdNumber } from '../../../shared-schema/src/rational';
 import { offerPlansOfRatio } from './exact';
 import { ProductHeap } from './heap';
 import type { Leader } from './rank';
+import { WorkBudget } from './work';
 
 export interface CyclesLimits {
   /** Most values of M the search may set up; more and it declines. */
@@ -52,7 +53,7 @@ let productCeil = new Float64Array(256);
  * Offers the plans of least error to the leader. False when the search declined (too many M,
  * numbers beyond exact doubles) or gave up (too many pairs): the caller must search otherwise.
  */
-export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): boolean {
+export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits, budget: WorkBudget = new WorkBudget(Infinity)): boolean {
   const C = d.clockF;
   const T = d.targetF;
   const jMin = d.jMin;
@@ -62,6 +63,8 @@ export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): b
   // f_out ≥ C·M/K max: larger M overshoot by more than the leader's error.
   if (lead.errF < Infinity) mTop = Math.min(mTop, Math.floor(((T + lead.errF) * kMax * (1 + EDGE)) / C) + 1);
   if (mTop > limits.maxCycles) return false;
+  // Its set-up (one pass over M) and every pair it tests are steps of the output's work.
+  if (mTop > budget.remaining || !budget.take(mTop)) return false;
 
   // f_target/C = a/b, so |f_out − f_target| = (C/b)·|M·b − a·K|/K. With b = q·a + s the
   // residue M·b − a·K = a·(M·q − K) + M·s stays exact in doubles near K*, which keeps the keys
@@ -151,7 +154,7 @@ export function searchByCycles(d: Domain, lead: Leader, limits: CyclesLimits): b
       const k = heap.topProduct();
       const step = heap.topStep();
       heap.pop();
-      if (++pairs > limits.maxPairs) return false;
+      if (++pairs > limits.maxPairs || !budget.take()) return false;
       if (offerValue(d, lead, m, k) && key < bestKey) bestKey = key;
       const next = k + step;
       if (next < productFloor[m]! || next > productCeil[m]!) continue;

@@ -12,6 +12,10 @@
 // are compared exactly on bigints, so the leader is always the exact best of what was offered.
 
 import type { Domain } from './domain';
+import type { WorkBudget } from './work';
+
+/** Walk steps one exact comparison of two plans counts for (bigint products). */
+const EXACT_COST = 16;
 
 export interface Candidate {
   j: number;
@@ -68,7 +72,14 @@ export class Leader {
   private readonly clockF: number;
   private readonly targetF: number;
 
-  constructor(private readonly d: Domain) {
+  /**
+   * `budget`: an exact comparison costs about as much as EXACT_COST walk steps, and is counted so
+   * (near-ties are the rule, not the exception, for targets with more digits than the doubles hold).
+   */
+  constructor(
+    private readonly d: Domain,
+    private readonly budget: WorkBudget | null = null,
+  ) {
     this.clockF = d.clockF;
     this.targetF = d.targetF;
   }
@@ -97,7 +108,10 @@ export class Leader {
     if (this.errF !== Infinity) {
       const s = this.slack(errF);
       if (errF > this.errF + s) return false;
-      if (errF >= this.errF - s && comparePlans(this.d, { j, n, m }, this) >= 0) return false;
+      if (errF >= this.errF - s) {
+        this.budget?.take(EXACT_COST);
+        if (comparePlans(this.d, { j, n, m }, this) >= 0) return false;
+      }
     }
     this.j = j;
     this.n = n;

@@ -10,28 +10,13 @@ import { fareyFloat, FloatNeighbours } from './farey';
 import { type Domain, keepsCeiling, maxCycles, minCycles } from './domain';
 import type { Leader } from './rank';
 import { quietestMultiple } from './exact';
+import { WorkBudget } from './work';
 
 const out = new FloatNeighbours();
 
-/**
- * Steps a search may still take, shared by its walk and the plain scans the walk falls back to;
- * only absurdly large domains run it out (see WALK_BUDGET in search.ts).
- */
-export class WorkBudget {
-  constructor(private left: number) {}
-
-  /** Takes `steps` steps (default one); false once the budget is spent. */
-  take(steps = 1): boolean {
-    this.left -= steps;
-    return this.left >= 0;
-  }
-
-  get spent(): boolean {
-    return this.left < 0;
-  }
-}
-
 const UNLIMITED = (): WorkBudget => new WorkBudget(Infinity);
+
+export { WorkBudget };
 
 /** a/b keeps S = b/a ≥ S floor. */
 function keepsFloor(d: Domain, a: number, b: number): boolean {

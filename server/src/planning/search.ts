@@ -114,12 +114,12 @@ export interface Outcome {
 
 /** The exact best candidate of a domain, starting from an optional known plan. */
 export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'auto'): Outcome {
-  const lead = new Leader(d);
+  const budget = new WorkBudget(WALK_BUDGET);
+  const lead = new Leader(d, budget);
   const done = (complete = true): Outcome => ({ best: lead.result(), complete });
   if (seed !== null) lead.offer(seed.j, seed.n, seed.m);
   // Error 0 cannot be beaten, and the exact plans are ranked without a scan.
   if (strategy !== 'walk' && offerExactPlans(d, lead)) return done();
-  const budget = new WorkBudget(WALK_BUDGET);
   const byJ = new ScanJ(d, lead, capOf(d), budget, ceilingCapOf(d));
   const byN = new ScanN(d, lead, budget);
   const C = d.clockF;
@@ -157,7 +157,7 @@ export function solve(d: Domain, seed: Candidate | null, strategy: Strategy = 'a
       : strategy === 'auto' && walk > CYCLES_FROM
         ? { maxCycles: Math.min(16 * walk, CYCLES_MAX), maxPairs: Math.min(walk, WALK_BUDGET) / 16 }
         : null;
-  if (limits !== null && searchByCycles(d, lead, limits)) return done();
+  if (limits !== null && searchByCycles(d, lead, limits, budget)) return done();
 
   if (j1 - j0 + 1 <= countN) {
     // Ascending J: once the leader is exact (and jitter-free in fractional mode) at a J already

@@ -27,6 +27,53 @@ export interface MenuPlan {
   j: number;
 }
 
+/**
+ * The work a whole board's menus may do together (table lengths and (N, M) checks): each menu
+ * gets an even share, at least MENU_MIN_STEPS, so neither time nor memory grows past it.
+ */
+export const BOARD_BUDGET = 1 << 21;
+const MENU_MIN_STEPS = 1 << 12;
+
+/** The steps each of `menus` menus may take. */
+export const menuSteps = (menus: number): number => Math.min(SHRINK_BUDGET, Math.max(MENU_MIN_STEPS, Math.floor(BOARD_BUDGET / Math.max(1, menus))));
+
+/** Menu plans in typed arrays: a frontier can hold one per table length. */
+export class Frontier {
+  private ns = new Float64Array(16);
+  private ms = new Float64Array(16);
+  private js = new Float64Array(16);
+  length = 0;
+
+  push(p: MenuPlan): void {
+    if (this.length === this.ns.length) {
+      const grow = (a: Float64Array<ArrayBuffer>): Float64Array<ArrayBuffer> => {
+        const b = new Float64Array(a.length * 2);
+        b.set(a);
+        return b;
+      };
+      this.ns = grow(this.ns);
+      this.ms = grow(this.ms);
+      this.js = grow(this.js);
+    }
+    this.ns[this.length] = p.n;
+    this.ms[this.length] = p.m;
+    this.js[this.length] = p.j;
+    this.length++;
+  }
+
+  at(k: number): MenuPlan {
+    return { n: this.ns[k]!, m: this.ms[k]!, j: this.js[k]! };
+  }
+
+  n(k: number): number {
+    return this.ns[k]!;
+  }
+
+  m(k: number): number {
+    return this.ms[k]!;
+  }
+}
+
 export class ShrinkMenu {
   /** S of the output's own plan, exact. */
   readonly sRef: Rational;
@@ -47,7 +94,7 @@ export class ShrinkMenu {
   private readonly jLo: number;
   private readonly jHi: number;
   private readonly floorF: number;
-  private frontierCache: MenuPlan[] | null = null;
+  private frontierCache: { steps: number; frontier: Frontier } | null = null;
 
   constructor(
     private readonly hw: Hardware,
@@ -142,12 +189,12 @@ export class ShrinkMenu {
   }
 
   /** For each table length, the largest S within tolerance, where it rises; the last entry has S ≥ the own plan's. */
-  frontier(): MenuPlan[] {
-    if (this.frontierCache !== null) return this.frontierCache;
-    const out: MenuPlan[] = [];
+  frontier(budget = SHRINK_BUDGET): Frontier {
+    if (this.frontierCache !== null && this.frontierCache.steps === budget) return this.frontierCache.frontier;
+    const out = new Frontier();
     const slot = { j: 0, err: 0 };
     let bestN = 0, bestM = 1; // largest S so far = bestN / bestM (0 = none)
-    let steps = SHRINK_BUDGET;
+    let steps = budget;
     for (let n = this.nMin; n <= this.nRef; n = this.next(n)) {
       // Every length counts, whether or not a cycle count is tried at it.
       if (--steps < 0) break;
@@ -171,10 +218,9 @@ export class ShrinkMenu {
       }
     }
     // The own plan is always on the menu (its divider kind, tolerance and duty are the menu's).
-    const last = out[out.length - 1];
     const own = this.ownPlan();
-    if (last === undefined || last.n * own.m < own.n * last.m) out.push(own);
-    this.frontierCache = out;
+    if (out.length === 0 || out.n(out.length - 1) * own.m < own.n * out.m(out.length - 1)) out.push(own);
+    this.frontierCache = { steps: budget, frontier: out };
     return out;
   }
 
@@ -182,7 +228,7 @@ export class ShrinkMenu {
    * Above S ≥ sMin: for each table length from the start plan's up to nLimit, the plan of least
    * error, where the error falls (exact errors, as shares of the tolerance), until an exact plan.
    */
-  staircase(sMin: Rational, start: MenuPlan, nLimit = Infinity): { plan: MenuPlan; share: Rational }[] {
+  staircase(sMin: Rational, start: MenuPlan, nLimit = Infinity, budget = SHRINK_BUDGET): { plan: MenuPlan; share: Rational }[] {
     const out: { plan: MenuPlan; share: Rational }[] = [];
     const sF = toNumber(sMin);
     const slot = { j: 0, err: 0 };
@@ -192,7 +238,7 @@ export class ShrinkMenu {
     let leastExact: Rational | null = worstError(this.planOf(start), this.pref);
     let least = toNumber(leastExact);
     out.push({ plan: start, share: shareOf(leastExact) });
-    let steps = SHRINK_BUDGET;
+    let steps = budget;
     for (let n = start.n; n <= this.nRef; n = this.next(n)) {
       if (--steps < 0) break;
       if (n > nLimit || leastExact.num === 0n) break;

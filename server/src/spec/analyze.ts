@@ -6,6 +6,7 @@ import type { ClockFile } from '../../../shared-schema/src/clock-schema';
 import type { FileKind } from '../../../shared-schema/src/keys';
 import { outputSchema, type OutputEntry, type WaveFile } from '../../../shared-schema/src/wave-schema';
 import type { Hardware } from '../planning/types';
+import { stepsPerOutput } from '../planning/work';
 import { fitToBudget } from './board-budget';
 import { buildHardware } from './clock-model';
 import { applyGroups } from './group-model';
@@ -117,11 +118,12 @@ function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
     diagnostics.push(diagnostic('too-many-outputs', outputsKey, `This file lists ${names.length} outputs, more than the ${MAX_OUTPUTS} waveplan plans in one file: split it into several wave files.`));
   }
   let usedBytes = 0;
+  const steps = stepsPerOutput(Math.min(names.length, MAX_OUTPUTS));
   for (const name of names.slice(0, MAX_OUTPUTS)) {
     const entry = (data.outputs as Record<string, unknown> | undefined)?.[name];
     const blocked = diagnostics.some((d) => d.output === name && d.severity === 'error' && d.code !== 'duplicate-output');
     if (blocked || !outputSchema.safeParse(entry).success) continue;
-    const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines);
+    const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines, steps);
     diagnostics.push(...planned.diagnostics);
     if (planned.output) analysis.outputs.push(planned.output);
     usedBytes += planned.tableBytes;

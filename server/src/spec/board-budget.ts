@@ -99,7 +99,7 @@ export function fitToBudget(analysis: Analysis, hw: Hardware, outputsKey: Range,
     const own = o.planning.plan!;
     const gaveS = sub(div(rat(BigInt(own.tableLength)), own.cycles), div(rat(BigInt(plan.tableLength)), plan.cycles));
     const gaveText = isInteger(gaveS) ? gaveS.num.toString() : toDecimal(gaveS, 3);
-    added.push(diagnostic('fitted-to-budget', o.nameRange, `To fit all tables in the ${formatBytes(budgetBytes)} memory budget this output takes ${sText(plan)} samples per cycle in ${formatBytes(plan.tableBytes)} instead of ${sText(own)} in ${formatBytes(own.tableBytes)}, giving up ${gaveText} samples per cycle and ${formatBytes(own.tableBytes - plan.tableBytes)}: ${planText(plan)}.`, o.name));
+    added.push(diagnostic('fitted-to-budget', o.nameRange, `To fit all tables in the ${formatBytes(budgetBytes)} memory budget this output takes ${sText(plan)} samples per cycle in ${formatBytes(plan.tableBytes)} instead of ${sText(own)} in ${formatBytes(own.tableBytes)}, giving up ${gaveText} samples per cycle and ${formatBytes(own.tableBytes - plan.tableBytes)}: ${planText(plan)}${fit.complete ? '' : ' (the best fit found within the board\'s work limit)'}.`, o.name));
     return { ...o, planning };
   });
   analysis.diagnostics.push(...added);

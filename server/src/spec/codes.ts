@@ -160,7 +160,7 @@ export const CODES = {
   'search-limit': {
     severity: 'warning',
     title: 'Plan search stopped at its work limit',
-    help: 'The divider and table-length ranges of this clock file span a domain so large that the plan search stopped at its work limit; the plan shown is the best found, not proven the nearest. Narrow divider.integer or memory.table-length (or use fewer fraction bits) to get a proven optimum in milliseconds.',
+    help: "The divider and table-length ranges of this clock file span a domain so large that the plan search stopped at its work limit, counted in steps (each output of a file has an even share of one budget for the file, so a file plans in seconds whatever its clock); the plan shown is the best found, not proven the nearest. An exact plan is always proven. Narrow divider.integer or memory.table-length (or use fewer fraction bits), or plan fewer outputs in one file, to get a proven optimum in milliseconds.",
   },
   'no-plan': {
     severity: 'error',

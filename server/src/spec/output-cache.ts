@@ -28,8 +28,11 @@ export interface PieceReading {
   quantities: SpecDiagnostic[][];
   /** No error blocks planning and the entry matches the output schema. */
   plannable: boolean;
-  /** Planned results per hardware (a clock file's text gives one Hardware object: see analyze.ts). */
-  planned: WeakMap<Hardware, PlannedOutput | null>;
+  /**
+   * Planned results per hardware (a clock file's text gives one Hardware object: see analyze.ts)
+   * and per step share of the file's planning work (planning/work.ts).
+   */
+  planned: WeakMap<Hardware, Map<number, PlannedOutput | null>>;
   /** The parse, kept only until the first planning so a new output is not parsed twice. */
   parsed?: Parsed;
 }
@@ -101,7 +104,7 @@ function read(piece: OutputPiece): PieceReading {
   return { ok: true, schema, quantities, plannable, planned: new WeakMap(), parsed: plannable ? parsed : undefined };
 }
 
-function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware): PlannedOutput | null {
+function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number): PlannedOutput | null {
   let parsed = reading.parsed;
   reading.parsed = undefined;
   if (!parsed) {
@@ -111,7 +114,7 @@ function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware): Pl
     parsed = again;
   }
   const { doc, lines, data, quantities } = parsed;
-  const planned = planEntry(piece.name, data.outputs[piece.name] as OutputEntry, quantities, hardware, doc, lines);
+  const planned = planEntry(piece.name, data.outputs[piece.name] as OutputEntry, quantities, hardware, doc, lines, steps);
   const ok = inPiece(piece);
   const o = planned.output;
   const ranges = o ? [o.nameRange, o.entryRange, ...Object.values(o.valueRanges)] : [];
@@ -129,11 +132,16 @@ export function readPiece(piece: OutputPiece): PieceReading {
 }
 
 /** The planned output; null when it does not read on its own (the file is then read whole). */
-export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware): PlannedOutput | null {
-  let planned = reading.planned.get(hardware);
+export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number): PlannedOutput | null {
+  let byShare = reading.planned.get(hardware);
+  if (byShare === undefined) {
+    byShare = new Map();
+    reading.planned.set(hardware, byShare);
+  }
+  let planned = byShare.get(steps);
   if (planned === undefined) {
-    planned = plan(piece, reading, hardware);
-    reading.planned.set(hardware, planned);
+    planned = plan(piece, reading, hardware, steps);
+    byShare.set(steps, planned);
   }
   return planned;
 }

@@ -23,13 +23,14 @@ export interface PlannedOutput {
   tableBytes: number;
 }
 
-export function planEntry(name: string, entry: OutputEntry, quantities: Quantities, hardware: Hardware, doc: Document.Parsed, lines: LineIndex): PlannedOutput {
+/** `steps`: the output's share of its file's planning work (planning/work.ts stepsPerOutput). */
+export function planEntry(name: string, entry: OutputEntry, quantities: Quantities, hardware: Hardware, doc: Document.Parsed, lines: LineIndex, steps?: number): PlannedOutput {
   const built = buildOutput(name, entry, quantities, hardware, doc, lines);
   const diagnostics = [...built.diagnostics];
   const draft = built.draft;
   if (!draft) return { diagnostics, tableBytes: 0 };
   try {
-    const planning = planOutput(hardware, draft.request);
+    const planning = planOutput(hardware, draft.request, steps);
     const toleranceText = draft.toleranceText ?? quantities.get(['outputs', name, 'tolerance'])?.text ?? DEFAULT_TOLERANCE;
     diagnostics.push(...planningDiagnostics(draft, planning, hardware, toleranceText));
     const db = (key: string) => quantities.get(['outputs', name, key]);

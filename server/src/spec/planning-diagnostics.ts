@@ -88,7 +88,7 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
   }
 
   if (plan.searchLimited) {
-    push('search-limit', draft.nameRange, `The plan search stopped at its work limit on this clock's very large divider × table-length domain, so ${planText(plan)} is the best found, not proven the nearest: narrow divider.integer or table-length for a proven optimum.`);
+    push('search-limit', draft.nameRange, `The plan search stopped at its work limit (this output's share of the file's planning work) on this clock's very large divider × table-length domain, so ${planText(plan)} is the best found, not proven the nearest: narrow divider.integer or table-length, or plan fewer outputs in this file, for a proven optimum.`);
   }
 
   if (!plan.seam.ok) {

@@ -9,6 +9,7 @@
 
 import { type WaveFile, waveSchema } from '../../../shared-schema/src/wave-schema';
 import type { Hardware } from '../planning/types';
+import { stepsPerOutput } from '../planning/work';
 import { type FrameReading, frameSyntax } from './frame-tolerant';
 import { Memo } from './memo';
 import { keyRange, valueRange } from './nodes';
@@ -99,8 +100,9 @@ export function analyzeWaveFast(analysis: Analysis, steps: WaveSteps): boolean {
   if (!hardware) return true;
 
   const planned: (PlannedOutput | undefined)[] = [];
+  const share = stepsPerOutput(seg.pieces.length);
   for (let i = 0; i < seg.pieces.length; i++) {
-    const p = readings[i].plannable ? planPiece(seg.pieces[i], readings[i], hardware) : undefined;
+    const p = readings[i].plannable ? planPiece(seg.pieces[i], readings[i], hardware, share) : undefined;
     if (p === null && exact) return false;
     planned.push(p ?? undefined);
   }
