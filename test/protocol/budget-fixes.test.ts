@@ -83,3 +83,51 @@ describe('board-budget quick fixes', () => {
     expect(new Fraction(p.tableLength).div(new Fraction(p.cycles.num, p.cycles.den)).equals(new Fraction(m[2]))).toBe(true);
   });
 });
+
+describe('over-budget quick fixes', () => {
+  let overDir: string;
+  let overClient: LspClient;
+  let overFile: string;
+  const overText = `clock: ./rig.clock.yaml
+outputs:
+  capture:
+    shape: sine
+    frequency: 1017.25260416667 Hz
+    tolerance: 1 %
+    plan: { divider: 10, table-length: 12288, cycles: 1 }   # 24576 B: the whole 24 KiB budget
+  probe:
+    shape: sine
+    frequency: 1 kHz
+`;
+
+  beforeAll(async () => {
+    overDir = fs.mkdtempSync(path.join(os.tmpdir(), 'waveplan-over-'));
+    fs.copyFileSync(path.join(ROOT, 'test/fixtures/bad/rig.clock.yaml'), path.join(overDir, 'rig.clock.yaml'));
+    overFile = path.join(overDir, 'board.wave.yaml');
+    fs.writeFileSync(overFile, overText);
+    overClient = await LspClient.start({ folders: [overDir] });
+    overClient.open(uriOf(overFile), overText, 1);
+  });
+
+  afterAll(async () => {
+    await overClient?.stop();
+    if (overDir) fs.rmSync(overDir, { recursive: true, force: true });
+  });
+
+  it('offers "Use fewer samples" for the largest output that can shrink, saying when the error stays', async () => {
+    const uri = uriOf(overFile);
+    const published = await overClient.diagnosticsFor(uri, (p) => p.version === 1);
+    const d = published.diagnostics.find((x) => x.code === 'over-budget')!;
+    expect(d, JSON.stringify(published.diagnostics.map((x) => x.code))).toBeDefined();
+    // derived: the pinned table alone fills 12288 · 2 B = 24576 B = 24 KiB, so nothing else fits.
+    expect(d.message).toContain('capture 24 KiB');
+    const actions = await overClient.request<CodeAction[]>('textDocument/codeAction', { textDocument: { uri }, range: d.range, context: { diagnostics: [d], only: ['quickfix'] } });
+    const fewer = actions.find((a) => a.title.startsWith('Use fewer samples for probe'))!;
+    expect(fewer, actions.map((a) => a.title).join('\n')).toBeDefined();
+    expect(fewer.title).toContain(' — does not clear over-budget');
+    const after = analyze(overFile, applyEdits(overText, fewer.edit.changes[uri]), host).outputs.find((o) => o.name === 'probe')!;
+    const m = /\(S = ([\d.]+), (\d+) B\)/.exec(fewer.title)!;
+    expect(after.planning.plan!.tableLength * 2).toBe(Number(m[2]));
+    expect(after.planning.withinTolerance).toBe(true);
+  });
+});
