@@ -56,11 +56,12 @@ describe('the report page', () => {
     const images = await page.$$eval('img', (imgs) =>
       imgs.map((i) => ({ alt: i.getAttribute('alt'), complete: i.complete, width: i.naturalWidth, height: i.naturalHeight })),
     );
-    // Two pictures (waveform, seam) per planned output, a jitter picture per fractional plan,
-    // and one memory bar per spec.
+    // Three pictures (waveform, seam, spectrum) per planned output, a jitter picture per
+    // fractional plan, and one memory bar per spec.
     const planned = (html.match(/<article class="output"[^>]*><h4>[\s\S]*?<\/article>/g) ?? []).filter((a) => !a.includes('No plan'));
     const fractional = (html.match(/class="jitter"/g) ?? []).length;
-    expect(images.length).toBe(planned.length * 2 + fractional + 2);
+    expect(images.length).toBe(planned.length * 3 + fractional + 2);
+    expect((html.match(/class="spectrum"/g) ?? []).length).toBe(planned.length);
     expect(fractional).toBeGreaterThanOrEqual(1); // the fixture’s odd-tone at least
     for (const img of images) {
       expect(img.complete, img.alt ?? '').toBe(true);

@@ -9,6 +9,10 @@ import { formatCycles, formatDivider, formatPpm, formatSignedHz } from '../cli/u
 import type { Hardware } from '../planning/types';
 import { jitterSvg, memorySvg, seamSvg, svgDataUri, waveformSvg } from '../render';
 import { escapeXml as esc } from '../render/svg';
+import { spectrumSvg } from '../render/spectrum';
+import { floorOf, signalRows } from '../cli/signal-rows';
+import { outputSignal } from '../signal/output-signal';
+import { spectrumPicture } from '../signal/spectrum-picture';
 import { dutyPhrase } from '../spec/planning-diagnostics';
 import { clockProblem } from '../spec/analyze';
 import type { OutputAnalysis } from '../spec/types';
@@ -87,12 +91,16 @@ function outputArticle(i: number, o: OutputAnalysis, hw: Hardware | null): strin
   ];
   const alt = o.planning.nearestJitterFree;
   if (alt && !p.jitterFree) figures.push(['nearest jitter-free', `${formatDivider(alt)}, ${alt.tableLength} × ${formatCycles(alt.cycles)} → ${formatHz(alt.achievedHz)} (${formatPpm(alt.errorPpm)})`]);
+  // The signal figures of what the plan emits (computed here, on first use).
+  for (const [k, v] of signalRows(hw, o.request, p, floorOf(o, hw))) figures.push([k, v]);
   const dl = `<dl class="figures">${figures.map(([k, v]) => `<dt>${esc(k)}</dt><dd>${esc(v)}</dd>`).join('')}</dl>`;
   const jitter = jitterSvg(p);
+  const signal = outputSignal(hw, o.request, p);
   const pics =
     picture(waveformSvg(p, w, hw.dac, span), `${o.name}: output samples and the ideal signal`, 'waveform') +
     picture(seamSvg(p, w, hw.dac, span), `${o.name}: table wrap`, 'seam') +
-    (jitter ? picture(jitter, `${o.name}: divider pattern and TIE`, 'jitter') : '');
+    (jitter ? picture(jitter, `${o.name}: divider pattern and TIE`, 'jitter') : '') +
+    (signal ? picture(spectrumSvg(spectrumPicture(signal, floorOf(o, hw).sfdrDb)), `${o.name}: spectrum, spurs, images and the quality floor`, 'spectrum') : '');
   return `<article class="output" id="${anchor(i, o)}">${head}${dl}<div class="pictures">${pics}</div></article>`;
 }
 

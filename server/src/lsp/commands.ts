@@ -6,7 +6,8 @@ import type { CancellationToken, WorkDoneProgressServerReporter } from 'vscode-l
 import type { Analysis } from '../spec/types';
 import { findSpecFiles } from './dependencies';
 import { EXPORT_C, HTML_REPORT } from './export-commands';
-import { memoryLine, outputCard } from './plan-card';
+import { floorOf, signalRows } from '../cli/signal-rows';
+import { memoryLine, outputCard, table } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { checkCancelled, yieldToEvents } from './safe';
 
@@ -63,9 +64,10 @@ export function planReport(analysis: Analysis, title: string): string {
   if (memory) lines.push(memory, '');
   if (analysis.kind === 'clock') lines.push('This is a clock file; its wave specs hold the outputs.', '');
   for (const output of analysis.outputs) {
-    const text = outputCard(output);
-    const dac = analysis.hardware?.dac;
-    lines.push(`## ${output.name}`, '', dac ? withPictures(text, outputPictures(output, dac), REPORT_LIMIT / 8) : text, '');
+    const hw = analysis.hardware;
+    const plan = output.planning.plan;
+    const text = outputCard(output) + (hw && plan ? `\n\n${table(signalRows(hw, output.request, plan, floorOf(output, hw)))}` : '');
+    lines.push(`## ${output.name}`, '', hw ? withPictures(text, outputPictures(output, hw.dac, hw), REPORT_LIMIT / 8) : text, '');
   }
   if (analysis.diagnostics.length > 0) {
     lines.push('## Findings', '');

@@ -7,7 +7,9 @@ import { lookupKey, type KeyInfo } from '../../../shared-schema/src/keys';
 import type { Analysis } from '../spec/types';
 import { clockBudgetLine } from './clock-views';
 import { systemClockHover } from './clock-hover';
-import { memoryLine, outputCard } from './plan-card';
+import { floorOf, signalRows } from '../cli/signal-rows';
+import { QUICK_SPECTRUM } from '../signal/output-signal';
+import { memoryLine, outputCard, table } from './plan-card';
 import { outputPictures, withPictures } from './pictures';
 import { quantityViews } from './quantity-views';
 import type { NodeAtCursor, SyntaxTree } from './yaml-path';
@@ -31,12 +33,15 @@ function outputHover(analysis: Analysis, name: string, pictures: boolean): strin
   const output = analysis.outputs.find((o) => o.name === name);
   if (!output) return undefined;
   let text = outputCard(output);
+  const hw = analysis.hardware;
+  const plan = output.planning.plan;
+  // The signal figures and the spectrum are computed on the first hover of a plan (memoised with it).
+  if (hw && plan) text += `\n\n${table(signalRows(hw, output.request, plan, floorOf(output, hw), QUICK_SPECTRUM))}`;
   const budget = clockBudgetLine(output, analysis.hardware);
   if (budget) text += `\n\n${budget}`;
   const memory = memoryLine(analysis);
   if (memory) text += `\n\n${memory}`;
-  const dac = analysis.hardware?.dac;
-  return pictures && dac ? withPictures(text, outputPictures(output, dac), HOVER_LIMIT) : text;
+  return pictures && hw ? withPictures(text, outputPictures(output, hw.dac, hw), HOVER_LIMIT) : text;
 }
 
 function valueHover(analysis: Analysis, at: NodeAtCursor): string | undefined {

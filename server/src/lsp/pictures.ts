@@ -5,6 +5,10 @@
 import type { Hardware, PlanFigures } from '../planning/types';
 import { jitterSvg, seamSvg, svgDataUri, waveformSvg } from '../render/index';
 import type { OutputAnalysis } from '../spec/types';
+import { floorOf } from '../cli/signal-rows';
+import { spectrumSvg } from '../render/spectrum';
+import { outputSignal, QUICK_SPECTRUM } from '../signal/output-signal';
+import { spectrumPicture } from '../signal/spectrum-picture';
 
 export interface Picture {
   title: string;
@@ -23,7 +27,7 @@ function image(alt: string, svg: string): string {
 const KEPT_CARDS = 32;
 const rendered = new Map<PlanFigures, Map<string, Picture[]>>();
 
-export function outputPictures(output: OutputAnalysis, dac: Hardware['dac']): Picture[] {
+export function outputPictures(output: OutputAnalysis, dac: Hardware['dac'], hw?: Hardware): Picture[] {
   const plan = output.planning.plan;
   if (!plan) return [];
   const byName = rendered.get(plan) ?? new Map<string, Picture[]>();
@@ -31,11 +35,11 @@ export function outputPictures(output: OutputAnalysis, dac: Hardware['dac']): Pi
   rendered.set(plan, byName); // Map order is the recency order
   if (rendered.size > KEPT_CARDS) rendered.delete(rendered.keys().next().value!);
   let pictures = byName.get(output.name);
-  if (!pictures) byName.set(output.name, (pictures = render(output, plan, dac)));
+  if (!pictures) byName.set(output.name, (pictures = render(output, plan, dac, hw)));
   return pictures;
 }
 
-function render(output: OutputAnalysis, plan: PlanFigures, dac: Hardware['dac']): Picture[] {
+function render(output: OutputAnalysis, plan: PlanFigures, dac: Hardware['dac'], hw?: Hardware): Picture[] {
   const { waveform } = output.request;
   const span = output.request.pinned?.span ?? 'open';
   const pictures: Picture[] = [
@@ -51,6 +55,11 @@ function render(output: OutputAnalysis, plan: PlanFigures, dac: Hardware['dac'])
   const jitter = jitterSvg(plan);
   if (jitter !== null) {
     pictures.push({ title: 'jitter', markdown: image(`${output.name}: sample periods of the fractional divider and their time-interval error`, jitter) });
+  }
+  const spectrum = hw ? outputSignal(hw, output.request, plan, QUICK_SPECTRUM) : null;
+  if (hw && spectrum) {
+    const svg = spectrumSvg(spectrumPicture(spectrum, floorOf(output, hw).sfdrDb));
+    pictures.push({ title: 'spectrum', markdown: image(`${output.name}: spectrum of the stream, spurs, images and the quality floor`, svg) });
   }
   return pictures;
 }

@@ -32,7 +32,10 @@ export function spectrumSvg(pic: SpectrumPicture): string {
     text(PLOT.left + PLOT.width - 4, floorY - 4, `floor ${pic.floorDbc.toFixed(1)} dBc`, { 'text-anchor': 'end', fill: palette.ideal, 'font-size': 10 });
   const mark = (l: { hz: number; dbc: number }, label: string, colour: string, cls: string) =>
     el('circle', { class: cls, cx: f.x(l.hz), cy: f.y(Math.max(l.dbc, f.y.domain[0])), r: 3, fill: 'none', stroke: colour, 'stroke-width': 1.5 }) +
-    text(f.x(l.hz) + 5, f.y(Math.max(l.dbc, f.y.domain[0])) - 5, label, { fill: colour, 'font-size': 10 });
+    // Labels right of the mark, or left of it in the right third, so they stay inside the picture.
+    (f.x(l.hz) > PLOT.left + (2 * PLOT.width) / 3
+      ? text(f.x(l.hz) - 5, f.y(Math.max(l.dbc, f.y.domain[0])) - 5, label, { fill: colour, 'font-size': 10, 'text-anchor': 'end' })
+      : text(f.x(l.hz) + 5, f.y(Math.max(l.dbc, f.y.domain[0])) - 5, label, { fill: colour, 'font-size': 10 }));
   let marks = mark({ hz: pic.fOutHz, dbc: 0 }, `f_out ${siText(pic.fOutHz, 'Hz')}`, palette.ok, 'wp-fundamental');
   if (pic.worstSpur) marks += mark(pic.worstSpur, `worst spur, SFDR ${pic.sfdrDb!.toFixed(1)} dB`, palette.fault, 'wp-spur');
   marks += mark(pic.firstImage, `first image ${pic.firstImage.dbc.toFixed(1)} dBc`, palette.muted, 'wp-image');

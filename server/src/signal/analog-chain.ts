@@ -10,7 +10,8 @@
 // - the reconstruction filter must bring the first image (f_s − f_out, hold.ts) down to the
 //   quality floor: attenuation = floor + image level (dBc), when positive.
 
-import type { AnalogChain, LoadKind, Shape } from '../planning/types';
+import { toNumber } from '../../../shared-schema/src/rational';
+import type { AnalogChain, LoadKind, OutputRequest, PlanFigures, Shape } from '../planning/types';
 
 export type { AnalogChain, LoadKind };
 
@@ -125,5 +126,25 @@ export function chainFigures(chain: AnalogChain, s: ChainSignal): ChainFigures {
     tiltExact: tiltE,
     tiltApprox: tiltA,
     cautions,
+  };
+}
+
+/**
+ * The chain's view of a planned output. The largest step between neighbouring samples is the
+ * plain shape's: a sine's 2·A·sin(π/S) peak-to-peak share, a triangle's 2·Vpp/S, the full swing for
+ * a square's edge and a sawtooth's reset.
+ */
+export function chainSignal(req: OutputRequest, plan: PlanFigures, lsbV: number): ChainSignal {
+  const w = req.waveform;
+  const s = plan.tableLength / toNumber(plan.cycles);
+  const step = w.shape === 'sine' ? w.amplitudeVpp * Math.sin(Math.PI / s) : w.shape === 'triangle' ? (2 * w.amplitudeVpp) / s : w.amplitudeVpp;
+  return {
+    shape: w.shape,
+    duty: w.duty,
+    fOutHz: toNumber(plan.achievedHz),
+    sampleRateHz: toNumber(plan.sampleRateHz),
+    amplitudeVpp: w.amplitudeVpp,
+    offsetV: w.offsetV,
+    largestStepV: Math.max(step, lsbV),
   };
 }

@@ -14,6 +14,9 @@ import { type SignalFigures, analyseSignal, type SignalAnalysis } from './signal
 /** Tables longer than this are not built for a spectrum (2^22 samples: 32 MiB of codes and a second's work). */
 export const MAX_SPECTRUM_TABLE = 2 ** 22;
 
+/** What a hover may transform (2^15 points, a few milliseconds); longer periods go analytic. */
+export const QUICK_SPECTRUM: SpectrumOptions = { maxTransformPoints: 2 ** 15 };
+
 const memo = new WeakMap<PlanFigures, Map<string, SignalAnalysis>>();
 
 /** The quality estimate's inputs for a plan (cheap: no table is built). */

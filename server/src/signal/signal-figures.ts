@@ -3,7 +3,7 @@
 // image (hold.ts).
 
 import type { Shape } from '../planning/types';
-import { type EmittedPlan, streamModel } from './emitted';
+import { type EmittedPlan, type StreamModel, streamModel } from './emitted';
 import { holdFigures, type HoldFigures } from './hold';
 import { type LineSpectrum, lineSpectrum, type SpectrumOptions } from './lines';
 import { type ToneFigures, toneFigures } from './tone-figures';
@@ -26,6 +26,8 @@ export interface SignalAnalysis {
   spectrum: LineSpectrum;
   /** The fundamental's line in the spectrum. */
   cyclesPerSample: number;
+  /** The stream reduced to its own period (one cycle when S is whole). */
+  model: StreamModel;
 }
 
 export function analyseSignal(input: SignalInput, options: SpectrumOptions = {}): SignalAnalysis {
@@ -36,6 +38,7 @@ export function analyseSignal(input: SignalInput, options: SpectrumOptions = {})
     figures: { ...tone, ...holdFigures(input.achievedHz, input.sampleRateHz), sampleRateHz: input.sampleRateHz, achievedHz: input.achievedHz },
     spectrum,
     cyclesPerSample: model.cyclesPerSample,
+    model,
   };
 }
 

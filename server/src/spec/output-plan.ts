@@ -36,7 +36,7 @@ export function planEntry(name: string, entry: OutputEntry, quantities: Quantiti
     const db = (key: string) => quantities.get(['outputs', name, key]);
     const floor = qualityFloor(hardware, db('min-snr') && toNumber(db('min-snr')!.value), db('min-sfdr') && toNumber(db('min-sfdr')!.value));
     diagnostics.push(...signalDiagnostics(draft, planning, hardware, floor));
-    return { diagnostics, output: { ...draft, planning }, tableBytes: planning.plan?.tableBytes ?? 0 };
+    return { diagnostics, output: { ...draft, planning, qualityFloor: { snrDb: floor.snrDb, sfdrDb: floor.sfdrDb } }, tableBytes: planning.plan?.tableBytes ?? 0 };
   } catch (e) {
     diagnostics.push(diagnostic('internal-error', draft.nameRange, `Planning this output failed (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`, name));
     return { diagnostics, tableBytes: 0 };

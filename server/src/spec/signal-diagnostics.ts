@@ -6,7 +6,7 @@ import { formatHz, formatSeconds, formatVolts } from '../../../shared-schema/src
 import { fromNumber } from '../../../shared-schema/src/rational';
 import { lsbVolts } from '../planning/table';
 import type { Hardware, OutputPlanning, PlanFigures } from '../planning/types';
-import { chainFigures } from '../signal/analog-chain';
+import { chainFigures, chainSignal } from '../signal/analog-chain';
 import { estimateOfPlan } from '../signal/output-signal';
 import { defaultFloorDb, type QualityCause, type QualityEstimate } from '../signal/quality-floor';
 import { toNumber } from '../../../shared-schema/src/rational';
@@ -96,12 +96,7 @@ function chainDiagnostics(draft: OutputDraft, plan: PlanFigures, hw: Hardware, p
   const chain = hw.analog!;
   const w = draft.request.waveform;
   const fOut = toNumber(plan.achievedHz);
-  const fs = toNumber(plan.sampleRateHz);
-  const lsb = lsbVolts(hw.dac);
-  // The largest step between neighbouring samples: for the plain shapes, from their form.
-  const S = plan.tableLength / toNumber(plan.cycles);
-  const step = w.shape === 'sine' ? w.amplitudeVpp * Math.sin(Math.PI / S) : w.shape === 'triangle' ? (2 * w.amplitudeVpp) / S : w.amplitudeVpp;
-  const f = chainFigures(chain, { shape: w.shape, duty: w.duty, fOutHz: fOut, sampleRateHz: fs, amplitudeVpp: w.amplitudeVpp, offsetV: w.offsetV, largestStepV: Math.max(step, lsb) });
+  const f = chainFigures(chain, chainSignal(draft.request, plan, lsbVolts(hw.dac)));
   const at = draft.nameRange;
   const hz = (x: number) => formatHz(fromNumber(Number(x.toPrecision(6))));
   if (f.clips) {

@@ -55,6 +55,8 @@ export interface OutputAnalysis {
   toleranceText?: string;
   request: OutputRequest;
   planning: OutputPlanning;
+  /** The signal-quality floor in dB (min-snr, min-sfdr or their defaults from the DAC's bits). */
+  qualityFloor?: { snrDb: number; sfdrDb: number };
 }
 
 /** A group of outputs planned together (see planning/groups.ts). */
