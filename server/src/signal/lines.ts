@@ -37,6 +37,8 @@ export interface LineSpectrum {
   candidates(): Iterable<number>;
   /** Exact spectra: every line's power, index m (the hot loops read it directly). */
   powers?: Float64Array;
+  /** Analytic spectra whose table was not transformed either: each line costs O(N'). */
+  binByBin?: boolean;
 }
 
 export interface SpectrumOptions {
@@ -75,13 +77,10 @@ function exactLines(samples: Float64Array, jitter: number): LineSpectrum {
   };
 }
 
-/**
- * The table's DFT C_q (unnormalised): by one transform of N' when it fits the engine's limit
- * (whatever the caller's limit on the whole period), else bin by bin.
- */
-function tableBins(model: StreamModel): (q: number) => { re: number; im: number } {
+/** The table's DFT C_q (unnormalised): by one transform of N' when it fits the limit, else bin by bin. */
+function tableBins(model: StreamModel, maxPoints: number): (q: number) => { re: number; im: number } {
   const nr = model.tableLength;
-  if (transformPoints(nr) <= MAX_TRANSFORM_POINTS) {
+  if (transformPoints(nr) <= maxPoints) {
     const re = Float64Array.from(model.codes);
     const im = new Float64Array(nr);
     fft(re, im);
@@ -112,14 +111,14 @@ function inverseMod(x: number, m: number): number {
   return ((s0 % m) + m) % m;
 }
 
-function analyticLines(model: StreamModel, withJitter: boolean): LineSpectrum {
+function analyticLines(model: StreamModel, maxPoints: number, withJitter: boolean): LineSpectrum {
   const { tableLength: nr, patternLength: L, common: g } = model;
   const jitter = withJitter ? jitterPower(model) : 0;
   const useJitter = withJitter && L > 1;
   const P = useJitter ? model.period : nr;
   const a = nr / g;
   const b = useJitter ? L / g : 1;
-  const C = tableBins(model);
+  const C = tableBins(model, maxPoints);
   const invA = b > 1 ? inverseMod(a, b) : 0;
   const invF = L > 1 ? inverseMod(model.fractionStep, L) : 0;
   const D = model.divider;
@@ -188,7 +187,7 @@ function analyticLines(model: StreamModel, withJitter: boolean): LineSpectrum {
     };
     // The table's strongest bins: the fundamental's neighbourhood and the largest few overall when
     // the whole table was transformed.
-    const bins = strongestBins(model, C);
+    const bins = strongestBins(model, C, maxPoints);
     for (const q of bins) {
       fold(q * b);
       if (!useJitter) continue;
@@ -211,17 +210,18 @@ function analyticLines(model: StreamModel, withJitter: boolean): LineSpectrum {
     bandPower: tableAcPower(model) + jitter,
     jitterPower: jitter,
     candidates,
+    binByBin: transformPoints(nr) > maxPoints,
   };
 }
 
 /** Bins of the table with the most power (up to 16), scanning it when it was transformed. */
-function strongestBins(model: StreamModel, C: (q: number) => { re: number; im: number }): number[] {
+function strongestBins(model: StreamModel, C: (q: number) => { re: number; im: number }, maxPoints: number): number[] {
   const nr = model.tableLength;
   const half = Math.floor(nr / 2);
   const fundamental = Math.round(model.cyclesPerSample * nr);
   const picked = new Set<number>();
   for (let h = 1; h <= 10 && h * fundamental <= half; h++) picked.add(h * fundamental);
-  if (transformPoints(nr) <= MAX_TRANSFORM_POINTS) {
+  if (transformPoints(nr) <= maxPoints) {
     const top: { q: number; p: number }[] = [];
     for (let q = 1; q <= half; q++) {
       const c = C(q);
@@ -249,10 +249,10 @@ export function lineSpectrum(model: StreamModel, options: SpectrumOptions = {}):
     if (transformPoints(model.tableLength) <= maxPoints) {
       return exactLines(Float64Array.from(model.codes), 0);
     }
-    return analyticLines(model, false);
+    return analyticLines(model, maxPoints, false);
   }
   if (transformPoints(model.period) <= maxPoints) {
     return exactLines(streamSamples(model), jitterPower(model));
   }
-  return analyticLines(model, true);
+  return analyticLines(model, maxPoints, true);
 }

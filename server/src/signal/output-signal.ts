@@ -14,8 +14,11 @@ import { type SignalFigures, analyseSignal, type SignalAnalysis } from './signal
 /** Tables longer than this are not built for a spectrum (2^22 samples: 32 MiB of codes and a second's work). */
 export const MAX_SPECTRUM_TABLE = 2 ** 22;
 
-/** What a hover may transform (2^15 points, a few milliseconds); longer periods go analytic. */
-export const QUICK_SPECTRUM: SpectrumOptions = { maxTransformPoints: 2 ** 15 };
+/**
+ * What a hover may transform (2^13 points, well under a millisecond); longer tables and periods go
+ * analytic, line by line, and say so. The report and the checker's JSON take the full limit.
+ */
+export const QUICK_SPECTRUM: SpectrumOptions = { maxTransformPoints: 2 ** 13 };
 
 const memo = new WeakMap<PlanFigures, Map<string, SignalAnalysis>>();
 

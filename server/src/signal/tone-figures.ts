@@ -18,8 +18,9 @@ import type { LineSpectrum, SpectrumMethod } from './lines';
 
 /** Lines below this share of the fundamental's power are rounding, not signal (−260 dBc). */
 const ZERO_SHARE = 1e-26;
-/** Harmonics an analytic spectrum evaluates one by one. */
+/** Harmonics an analytic spectrum evaluates one by one (10 when each costs a pass over the table). */
 const ANALYTIC_HARMONICS = 4096;
+const BIN_BY_BIN_HARMONICS = 10;
 
 export interface ToneFigures {
   method: SpectrumMethod;
@@ -57,7 +58,7 @@ export function toneFigures(spectrum: LineSpectrum, cyclesPerSample: number, sha
 
   // An analytic spectrum evaluates each harmonic on its own: a low output in a long table has
   // millions, whose sum past the first few thousand is far below the figures' resolution.
-  const lastHarmonic = spectrum.method === 'exact' ? Infinity : ANALYTIC_HARMONICS;
+  const lastHarmonic = spectrum.method === 'exact' ? Infinity : spectrum.binByBin ? BIN_BY_BIN_HARMONICS : ANALYTIC_HARMONICS;
   let harmonics = 0;
   for (let m = 2 * m1, h = 2; m <= half && h <= lastHarmonic; m += m1, h++) harmonics += spectrum.power(m);
   const signal = shapeHarmonicsAreSignal ? fundamental + harmonics : fundamental;
