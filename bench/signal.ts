@@ -8,9 +8,13 @@ import { parseDecimal, rat, toNumber } from '../shared-schema/src/rational';
 import { planOutputUncached } from '../server/src/planning/choose';
 import { buildTable } from '../server/src/planning/table';
 import type { Hardware, OutputRequest, PlanFigures } from '../server/src/planning/types';
-import { estimateOfPlan } from '../server/src/signal/output-signal';
 import { analyseSignal } from '../server/src/signal/signal-figures';
 import { seededRandom } from '../test/support/seeded';
+import { analyze } from '../server/src/spec/analyze';
+import { floorOf, signalRows } from '../server/src/cli/signal-rows';
+import { estimateOfPlan, outputSignal, QUICK_SPECTRUM } from '../server/src/signal/output-signal';
+import { spectrumPicture } from '../server/src/signal/spectrum-picture';
+import { spectrumSvg } from '../server/src/render/spectrum';
 
 const SYSTEM_CLOCK_HZ = 245_760_000;
 const hw: Hardware = {
@@ -80,3 +84,37 @@ for (const path of ['exact', 'analytic', 'estimate'] as const) {
   console.log(`  ${path.padEnd(9)} median ${quantile(ms, 0.5).toFixed(3)} ms  p95 ${quantile(ms, 0.95).toFixed(3)} ms  max ${Math.max(...ms).toFixed(3)} ms`);
 }
 console.log(`  ratio exact/estimate (medians) ${(quantile(times.exact, 0.5) / quantile(times.estimate, 0.5)).toFixed(0)}×`);
+
+// What a hover adds per output: the signal rows and the spectrum picture, cold (first hover of a
+// plan), on the language-server benchmark's board and mix of outputs (bench/lsp.ts).
+{
+  const clock = 'system-clock: 245.76 MHz\ndivider:\n  integer: { min: 1, max: 262143 }\n  fraction-bits: 6\ndac:\n  bits: 12\n  sample-bytes: 2\n  full-scale: 3.3 V\n  max-sample-rate: 25 MHz\nmemory:\n  budget: 4 MiB\n  table-length: { min: 32, max: 8192 }\n';
+  const r = seededRandom(0x1ab);
+  const shapes = ['sine', 'square', 'triangle', 'sawtooth'];
+  const lines = ['clock: ./b.clock.yaml', 'outputs:'];
+  for (let i = 0; i < TARGETS; i++) {
+    lines.push(`  out-${i}:`, `    shape: ${shapes[i % 4]}`, `    frequency: ${(10 ** (2 + r() * 4)).toFixed(3)} Hz`);
+    lines.push(i % 10 === 7 ? '    tolerance: 0.01 ppm\n    jitter: allow' : '    tolerance: 50 ppm');
+  }
+  const wave = lines.join('\n') + '\n';
+  const analysis = analyze('/b/b.wave.yaml', wave, { readFile: (p: string) => (p.endsWith('.clock.yaml') ? clock : p.endsWith('.wave.yaml') ? wave : undefined) });
+  const hw = analysis.hardware!;
+  const ms: number[] = [];
+  const cpu: number[] = [];
+  for (const o of analysis.outputs) {
+    const plan = o.planning.plan;
+    if (!plan) continue;
+    // CPU time of this process (user + system), steadier than the wall clock on a shared machine.
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    signalRows(hw, o.request, plan, floorOf(o, hw), QUICK_SPECTRUM);
+    const a = outputSignal(hw, o.request, plan, QUICK_SPECTRUM);
+    if (a) spectrumSvg(spectrumPicture(a, floorOf(o, hw).sfdrDb));
+    const c = process.cpuUsage(c0);
+    cpu.push((c.user + c.system) / 1000);
+    ms.push(performance.now() - t0);
+  }
+  console.log(`hover's signal rows + spectrum picture, cold, ${ms.length} outputs of the language-server mix:`);
+  console.log(`  wall median ${quantile(ms, 0.5).toFixed(3)} ms  p95 ${quantile(ms, 0.95).toFixed(3)} ms  max ${Math.max(...ms).toFixed(3)} ms`);
+  console.log(`  CPU  median ${quantile(cpu, 0.5).toFixed(3)} ms  p95 ${quantile(cpu, 0.95).toFixed(3)} ms  max ${Math.max(...cpu).toFixed(3)} ms`);
+}

@@ -17,6 +17,9 @@ import { formatHz } from './units';
 const dB = (x: number | null, what = 'dB'): string => (x === null ? 'unbounded' : `${x.toFixed(1)} ${what}`);
 const hz = (x: number): string => formatHz(fromNumber(Number(x.toPrecision(6))));
 
+/** Samples per cycle up to which a hover or report reconstructs a cycle for its fidelity figures. */
+export const FIDELITY_MAX_S = 1024;
+
 export interface Floor {
   snrDb: number;
   sfdrDb: number;
@@ -44,7 +47,11 @@ export function signalRows(hw: Hardware, req: OutputRequest, plan: PlanFigures, 
     ],
   ];
   const s = plan.tableLength / toNumber(plan.cycles);
-  if (req.waveform.shape !== 'sine' && Number.isInteger(s) && s <= 1 << 16) {
+  // Fidelity sums every harmonic below f_s/2 at each point of an edge: up to 1024 samples per cycle
+  // (a few milliseconds); longer cycles have edges one sample period wide, and the row says so.
+  if (req.waveform.shape !== 'sine' && Number.isInteger(s) && s > FIDELITY_MAX_S) {
+    rows.push(['shape', `S = ${s}: edges and corners resolve to one sample period (${formatSeconds(1 / toNumber(plan.sampleRateHz))})`]);
+  } else if (req.waveform.shape !== 'sine' && Number.isInteger(s)) {
     const a = outputSignal(hw, req, plan, options);
     // With S whole the table's own period is one cycle (N/gcd(M, N) = S).
     const cycle = a && a.model.tableLength === s ? a.model.codes : null;

@@ -17,6 +17,7 @@ import { setKey } from './entry-edits';
 import { leavesInPlace, previewFix, quickFix, resultClause, type Recheck } from './fix-preview';
 import { jitterFreeNeighbours } from './retarget';
 import { SCHEMA_FIX_CODES, schemaFixes } from './schema-fixes';
+import { signalFixes } from './signal-fixes';
 import { checkCancelled } from './safe';
 import { retuneActions } from './retune';
 
@@ -46,7 +47,7 @@ export function planText(plan: Pick<PlanFigures, 'dividerInteger' | 'dividerFrac
 }
 
 /** A fix before its preview: the head of its title, its edits, and how it may be offered. */
-interface Candidate {
+export interface Candidate {
   head: string;
   edits: (TextEdit | undefined)[];
   /** Fixes that only help when they clear the diagnostic are dropped when they would not. */
@@ -57,7 +58,7 @@ interface Candidate {
   title?: (after: OutputAnalysis | undefined) => string;
 }
 
-interface Context {
+export interface Context {
   doc: TextDocument;
   analysis: Analysis;
   output: OutputAnalysis;
@@ -154,7 +155,7 @@ function candidatesFor(c: Context): Candidate[] {
     case 'nyquist':
       return c.output.request.pinned ? pinNearest(c) : [];
     default:
-      return [];
+      return signalFixes(c);
   }
 }
 
