@@ -96,6 +96,22 @@ function checkHead(title: string, before: OutputAnalysis, after: OutputAnalysis 
     return;
   }
   if (/^(Allow a fractional divider( and pin its plan)?|Pin the nearest jitter-free plan): /.test(title)) return;
+  // The signal-quality and analog-chain fixes: what the head says the edit sets, the checker reads back.
+  if (/^Forbid jitter \(integer dividers only\): /.test(title)) {
+    if (after && (after.request.jitter !== 'forbid' || !after.planning.plan?.jitterFree)) problems.push(`${title}: the plan after the fix is not jitter-free`);
+    return;
+  }
+  if (/^Band-limit the table \(only harmonics below f_s\/2\): /.test(title)) {
+    if (after && !after.request.waveform.custom) problems.push(`${title}: the table after the fix is not band-limited`);
+    return;
+  }
+  const amplitude = /^(?:Raise|Lower) the amplitude to ([\d.]+) Vpp(?: around ([\d.]+) V)?: /.exec(title);
+  if (amplitude) {
+    const w = after?.request.waveform;
+    if (w && Math.abs(w.amplitudeVpp - Number(amplitude[1])) > 1e-9) problems.push(`${title}: the amplitude after the fix is ${w.amplitudeVpp} Vpp`);
+    if (w && amplitude[2] && Math.abs(w.offsetV - Number(amplitude[2])) > 1e-9) problems.push(`${title}: the offset after the fix is ${w.offsetV} V`);
+    return;
+  }
   problems.push(`${title}: not a title form this test reads`);
 }
 

@@ -2,7 +2,6 @@
 // candidate the code-action module previews (fix-preview.ts): its title's figures are what the
 // checker reports after the edit. The cause comes from the same estimate the diagnostic used.
 
-import { formatVolts } from '../../../shared-schema/src/quantity-format';
 import { lsbVolts } from '../planning/table';
 import { chainFigures, chainSignal } from '../signal/analog-chain';
 import { estimateOfPlan } from '../signal/output-signal';
@@ -26,9 +25,11 @@ function qualityFixes(c: Context): Candidate[] {
   if (e.snrCause === 'quantisation') {
     // Full scale less one LSB around mid-scale: the default swing, the most SNR the DAC has.
     const full = c.hw.dac.fullScaleV - lsbVolts(c.hw.dac);
+    const amp = vppDown(full);
+    const offset = `${Number((full / 2).toPrecision(6))} V`;
     out.push({
-      head: `Raise the amplitude to ${formatVolts(full, 'Vpp')} around ${formatVolts(full / 2)}`,
-      edits: [setKey(c.doc, c.output, 'amplitude', vppDown(full)), setKey(c.doc, c.output, 'offset', `${Number((full / 2).toPrecision(6))} V`)],
+      head: `Raise the amplitude to ${amp} around ${offset}`,
+      edits: [setKey(c.doc, c.output, 'amplitude', amp), setKey(c.doc, c.output, 'offset', offset)],
       mustClear: true,
     });
   }
