@@ -1,16 +1,16 @@
 // `npm run demo`: checks examples/ as text, exactly as `waveplan check examples` does, then says
-// what the run showed. The demo contains findings on purpose; the header of
-// examples/bench-rig.wave.yaml lists them (`#   <output> → error|warning: why`). The demo succeeds
+// what the run showed. The demo contains findings on purpose; the header comment of each wave spec
+// in examples/ lists its own (`#   <output> → error|warning: why`, one line per finding). The demo succeeds
 // (exit 0) when the checker finds exactly those, and fails when it finds anything else or misses
 // one — so "FAILED" from the checker is the intended result here, and the last line says so.
 import { spawnSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 const BIN = join(ROOT, 'bin', 'waveplan.js');
-const WAVE = join(ROOT, 'examples', 'bench-rig.wave.yaml');
+const EXAMPLES = join(ROOT, 'examples');
 
 const check = (...args) => spawnSync(process.execPath, [BIN, 'check', 'examples', ...args], { cwd: ROOT, encoding: 'utf8' });
 
@@ -23,8 +23,11 @@ if (text.status === 2 || json.status === 2 || json.stdout === '') {
   process.exit(1);
 }
 
-/** The findings the demo's wave spec promises, from its header comment. */
-const intended = [...readFileSync(WAVE, 'utf8').matchAll(/^#\s+([A-Za-z_][\w-]*)\s+→\s+(error|warning):/gm)].map((m) => `${m[2]} ${m[1]}`);
+/** The findings the demo's wave specs promise, from their header comments. */
+const intended = readdirSync(EXAMPLES)
+  .filter((name) => name.endsWith('.wave.yaml'))
+  .flatMap((name) => [...readFileSync(join(EXAMPLES, name), 'utf8').matchAll(/^#\s+([A-Za-z_][\w-]*)\s+→\s+(error|warning):/gm)])
+  .map((m) => `${m[2]} ${m[1]}`);
 const report = JSON.parse(json.stdout);
 const found = report.files
   .flatMap((f) => f.diagnostics)
@@ -46,8 +49,8 @@ const othersMeet = others.filter((o) => o.withinTolerance).length;
 
 if (same) {
   console.log(
-    `demo: as intended — the bench rig's deliberate findings: ${errors} error [${list('error')}] and ${warnings} ` +
-      `warnings [${list('warning')}]; ${othersMeet} of the other ${others.length} outputs meet their targets. ` +
+    `demo: as intended — the demo's deliberate findings: ${errors} ${errors === 1 ? 'error' : 'errors'} [${list('error')}] and ${warnings} ` +
+      `${warnings === 1 ? 'warning' : 'warnings'} [${list('warning')}]; ${othersMeet} of the other ${others.length} outputs meet their targets. ` +
       'See examples/README.md.',
   );
   process.exit(0);
