@@ -114,11 +114,14 @@ function describe(declared: z.ZodType, path: readonly (string | number)[], pathT
 const normalise = (kind: FileKind, path: readonly (string | number)[]): (string | number)[] =>
   kind === 'wave' && path[0] === 'outputs' && path.length >= 2 ? ['outputs', '*', ...path.slice(2)] : [...path];
 
+/** `outputs.*.steps[].frequency`: a list item's index is written `[]`. */
+const pathText = (parts: readonly (string | number)[]): string => parts.map((p) => (typeof p === 'number' ? '[]' : p)).join('.').replace(/\.\[\]/g, '[]');
+
 /** What the schema says about the key at `path` (e.g. ['outputs', 'coil', 'frequency']). */
 export function lookupKey(kind: FileKind, path: readonly (string | number)[]): KeyInfo | undefined {
   const declared = schemaAt(kind, path);
   if (!declared) return undefined;
-  return describe(declared, path, normalise(kind, path).join('.'));
+  return describe(declared, path, pathText(normalise(kind, path)));
 }
 
 /** The keys an object at `path` accepts (completion, "did you mean"); [] when it is not an object. */
@@ -135,6 +138,8 @@ export function listKeys(kind: FileKind): KeyInfo[] {
     if (path.length > 0) out.push(info);
     if (info.type === 'object') for (const child of info.children) visit([...path, child]);
     if (info.type === 'map') visit([...path, '*']);
+    // A list of mappings: the keys of its items (`outputs.*.steps[].frequency`).
+    if (info.type === 'list' && info.items?.type === 'object') for (const child of info.items.children) visit([...path, 0, child]);
   };
   visit([]);
   return out;

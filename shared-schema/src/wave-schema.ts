@@ -40,6 +40,22 @@ const pinnedPlanSchema = z.strictObject({
   ),
 });
 
+/** Steps one output may list (each adds a divider to the exported arrays). */
+export const MAX_STEPS = 64;
+
+const stepSchema = z
+  .strictObject({
+    frequency: required(
+      quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_FREQUENCY_HZ }),
+      'f_target of this step, e.g. `466.163761518 Hz`; exact as written.',
+    ),
+    tolerance: optional(
+      quantity({ kind: 'tolerance', min: 0 }),
+      "This step's allowed |achieved − target| in ppm, ppb, % or Hz; the output's `tolerance` when absent.",
+    ),
+  })
+  .describe('One frequency step: its frequency and, optionally, its own tolerance.');
+
 export const outputSchema = z.strictObject({
   description: optional(z.string(), 'Free text about this output; waveplan shows it and does not read it.'),
   shape: required(z.enum(SHAPES), 'The waveform the table holds.'),
@@ -53,9 +69,14 @@ export const outputSchema = z.strictObject({
     `Square waves only: how far the duty the table really has (a whole number of high samples per cycle) may be from \`duty\`, in points of the cycle, e.g. \`1 %\`; plans that hold the duty this closely are preferred, and waveplan warns when no plan within the frequency tolerance does. The default is ${DEFAULT_REASONS.dutyTolerance}.`,
     DEFAULT_DUTY_TOLERANCE,
   ),
-  frequency: required(
+  frequency: optionalDerived(
     quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_FREQUENCY_HZ }),
     'f_target, the output frequency, e.g. `3.997802734375 MHz`; exact as written.',
+    'required unless `steps` lists the frequencies',
+  ),
+  steps: optional(
+    z.array(stepSchema).min(1).max(MAX_STEPS),
+    `Frequencies the output steps through on one table, instead of \`frequency\` (a tone sequencer, a stepped frequency response, a scale): firmware keeps the table and changes only the divider. waveplan chooses one table (N, M) for every step and a divider per step (whole; fractional where \`jitter: allow\` and no whole one meets the step's tolerance), ranked as one output's plans are, with the worst share of the tolerance over the steps in place of the error. Up to ${MAX_STEPS} steps, e.g. \`- { frequency: 440 Hz }\`.`,
   ),
   tolerance: optional(
     quantity({ kind: 'tolerance', min: 0 }),

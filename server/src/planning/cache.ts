@@ -23,6 +23,7 @@ export function planningKey(hw: Hardware, req: OutputRequest): string {
     req.maxSamplesPerCycle ? q(req.maxSamplesPerCycle) : '-',
     req.duty ? `${q(req.duty.asked)},${q(req.duty.tolerance)}` : '-',
     p ? [p.dividerInteger, p.dividerFraction, p.tableLength, q(p.cycles), p.span].join(',') : '-',
+    req.steps ? req.steps.map((st) => `${q(st.targetHz)}@${q(st.toleranceHz)}`).join(',') : '-',
   ].join('|');
 }
 

@@ -16,6 +16,7 @@ import { describePlan } from './figures';
 import { pinnedPlan } from './pinned';
 import { type Preference, samplesPerCycle, withinTolerance } from './ranking';
 import { bestFractional, nearestJitterFree } from './search';
+import { planSteppedOutput } from './steps-choose';
 import { bestAtError } from './ties';
 import { realisesDuty } from './duty';
 import { dutyAlternatives, wholeCyclePlans } from './whole';
@@ -81,6 +82,7 @@ function lazy<T>(compute: () => T): () => T {
 }
 
 export function planOutputUncached(hw: Hardware, req: OutputRequest): OutputPlanning {
+  if (req.steps !== undefined) return planSteppedOutput(hw, req);
   const describe = (plan: Plan | null, span: 'open' | 'closed' = 'open'): PlanFigures | null =>
     plan === null ? null : describePlan(hw, req, req.waveform, plan, span);
   const pref = preferenceOf(req, hw);

@@ -82,9 +82,9 @@ const errorOf = (c: StepContext, i: number, u: number, j: number, scale: number)
 
 /**
  * The divider of step i on the table (m, n) with u = m/n: the nearest whole one, or (allowed and
- * needed) the nearest fractional one. Null when the divider range is empty.
+ * needed) the nearest fractional one, written into `out`. Null when the divider range is empty.
  */
-export function stepDivider(c: StepContext, i: number, m: number, n: number, fractional: boolean): StepDivider | null {
+export function stepDivider(c: StepContext, i: number, m: number, n: number, fractional: boolean, out: StepDivider = { j: 0, k: 0, err: 0, within: false }): StepDivider | null {
   const u = m / n;
   const ideal = (c.clockF * u) / c.targetF[i]!;
   let lo: number, hi: number;
@@ -105,8 +105,11 @@ export function stepDivider(c: StepContext, i: number, m: number, n: number, fra
       err = eh;
     }
   }
-  const whole: StepDivider = { j, k: 0, err, within: within(c, i, m, n, j, 0, err) };
-  if (whole.within || !fractional || c.fractionBits === 0) return whole;
+  out.j = j;
+  out.k = 0;
+  out.err = err;
+  out.within = within(c, i, m, n, j, 0, err);
+  if (out.within || !fractional || c.fractionBits === 0) return out;
   const s = c.scale;
   const jLo = c.jMin * s;
   const jHi = c.jMax * s + s - 1;
@@ -121,5 +124,9 @@ export function stepDivider(c: StepContext, i: number, m: number, n: number, fra
       fe = eb;
     }
   }
-  return { j: fj, k: c.fractionBits, err: fe, within: within(c, i, m, n, fj, c.fractionBits, fe) };
+  out.j = fj;
+  out.k = c.fractionBits;
+  out.err = fe;
+  out.within = within(c, i, m, n, fj, c.fractionBits, fe);
+  return out;
 }

@@ -26,8 +26,8 @@ import { MemberWalk } from './stages';
 import { type StepContext, type StepDivider, exactError, stepDivider } from './step-table';
 import type { Hardware, Plan } from './types';
 
-/** Units of work one steps search may take: a window opened, a table judged, a step's divider. */
-export const STEPS_BUDGET = 1 << 21;
+/** Units of work one steps search may take (a window opened, a table judged, a step's divider): about a tenth of a second; counted, not timed, so results do not depend on the machine. */
+export const STEPS_BUDGET = 1 << 20;
 
 export interface StepTarget {
   targetHz: Rational;
@@ -95,6 +95,7 @@ class StepsSearch {
   /** Tables the doubles cannot rank against the best: settled exactly at the end. */
   private finalists: Judged[] = [];
   private readonly seen = new Set<number>();
+  private readonly scratch: StepDivider[];
   private left: number;
   private readonly order: number[];
   private readonly pivot: number;
@@ -110,6 +111,7 @@ class StepsSearch {
   ) {
     this.left = budget;
     const n = q.steps.length;
+    this.scratch = q.steps.map(() => ({ j: 0, k: 0, err: 0, within: false }));
     // Pivot: the narrowest window per divider, tolerance / f² (its windows hold the fewest tables);
     // a step of tolerance 0 only when every step has it (its windows never widen).
     const weight = (i: number): number => (c.toleranceF[i]! > 0 ? c.toleranceF[i]! / (c.targetF[i]! * c.targetF[i]!) : Infinity);
@@ -190,13 +192,38 @@ class StepsSearch {
       const lo = Math.max(uMin, ((j / s) * (f - spread(bound))) / c.clockF) * (1 - MARGIN);
       const hi = Math.min(uMax, ((j / s) * (f + spread(bound))) / c.clockF) * (1 + MARGIN);
       if (hi < lo) continue;
-      if (this.q.wholeSamplesPerCycle) {
-        for (let sp = Math.max(1, Math.ceil(1 / hi)); sp <= Math.floor(1 / lo) && sp <= this.d.nMax; sp++) if (!this.judge(1, sp)) return;
-      } else {
-        walkFractions(lo, hi, this.d.nMax, (m0, n0) => this.judge(m0, n0));
-        if (!this.complete) return;
-      }
+      // The second step narrows the window too, when every table that could win needs a whole
+      // divider there within the bound: its windows [D·(f₂ − E·tol₂), D·(f₂ + E·tol₂)]/f_sys.
+      const second = this.order[1];
+      if (second !== undefined && this.wholeNeeded(bound)) {
+        const f2 = c.targetF[second]!;
+        const t2 = spread(bound) * (c.toleranceF[second]! / c.toleranceF[p]!);
+        const dLo = Math.max(c.jMin, Math.floor((c.clockF * lo) / (f2 + t2)));
+        const dHi = Math.min(c.jMax, Math.ceil((c.clockF * hi) / Math.max(f2 - t2, f2 * 1e-300)));
+        for (let d2 = dLo; d2 <= dHi; d2++) {
+          const lo2 = Math.max(lo, ((d2 * (f2 - t2)) / c.clockF) * (1 - MARGIN));
+          const hi2 = Math.min(hi, ((d2 * (f2 + t2)) / c.clockF) * (1 + MARGIN));
+          if (hi2 >= lo2 && !this.fractionsIn(lo2, hi2)) return;
+        }
+      } else if (!this.fractionsIn(lo, hi)) return;
     }
+  }
+
+  /** Every table that could beat the best needs whole dividers within this bound on every step. */
+  private wholeNeeded(bound: number): boolean {
+    const b = this.best;
+    if (!this.q.fractional || this.c.fractionBits === 0) return bound < Infinity;
+    return b !== null && b.within && b.frac === 0 && bound <= 1;
+  }
+
+  /** Judges the tables of the fractions in [lo, hi]; false once the budget is spent. */
+  private fractionsIn(lo: number, hi: number): boolean {
+    if (this.q.wholeSamplesPerCycle) {
+      for (let sp = Math.max(1, Math.ceil(1 / hi)); sp <= Math.floor(1 / lo) && sp <= this.d.nMax; sp++) if (!this.judge(1, sp)) return false;
+      return true;
+    }
+    walkFractions(lo, hi, this.d.nMax, (m0, n0) => this.judge(m0, n0));
+    return this.complete;
   }
 
   /** Judges the table of u = m0/n0; false once the budget is spent. */
@@ -210,22 +237,22 @@ class StepsSearch {
     const m = m0 * (n / n0);
     const under = this.capDen === 0 || n0 * this.capDen <= m0 * this.capNum;
     const b = this.best;
-    const dividers: StepDivider[] = [];
+    const dividers = this.scratch;
     let within = true;
     let frac = 0;
     let w = 0;
     for (const i of this.order) {
       this.take(1);
-      const sd = stepDivider(this.c, i, m, n, this.q.fractional);
+      const sd = stepDivider(this.c, i, m, n, this.q.fractional, dividers[i]);
       if (sd === null) return true;
-      dividers[i] = sd;
       within &&= sd.within;
       if (sd.k > 0 && sd.j % this.c.scale !== 0) frac++;
       const tol = this.c.toleranceF[i]!;
       w = Math.max(w, tol > 0 ? sd.err / tol : sd.err === 0 ? 0 : Infinity);
       if (b !== null && this.worse(b, within, frac, under, w)) return true;
     }
-    this.offer({ m0, n0, n, m, dividers, within, frac, under, w });
+    // Copied only when kept: the scratch is reused for the next table.
+    this.offer({ m0, n0, n, m, dividers: dividers.map((x) => ({ ...x })), within, frac, under, w });
     return true;
   }
 

@@ -5,6 +5,7 @@ import type { Rational } from '../../../shared-schema/src/rational';
 import type { ClockTree } from './clock-source';
 import type { DividerStage, StageValue } from './stages';
 import type { CustomWave } from './custom-wave';
+import type { StepTarget } from './steps';
 
 export type LoadKind = 'line' | 'transducer' | 'power-stage' | 'mains';
 
@@ -193,6 +194,8 @@ export interface OutputRequest extends PlanRequest {
    * limit: plans above it are chosen only when none at or below it meets the tolerance).
    */
   maxSamplesPerCycle?: Rational;
+  /** Frequency steps on one table (steps.ts): targetHz and toleranceHz are then the first step's. */
+  steps?: StepTarget[];
   /** Square waves: the asked duty exactly and duty-tolerance (both as shares of the cycle). */
   duty?: { asked: Rational; tolerance: Rational };
 }
@@ -218,7 +221,7 @@ export interface OutputPlanning {
    * when first read (a lazy, memoised property): read it only where its value is used.
    */
   readonly bestFractional: PlanFigures | null;
-  /** |errorHz| of `plan` ≤ toleranceHz. */
+  /** |errorHz| of `plan` ≤ toleranceHz (with steps: every step within its own). */
   withinTolerance: boolean;
   /** Set when the board's memory budget made the output take `plan` instead of this, its own plan. */
   shrunkFrom?: PlanFigures;
@@ -228,4 +231,6 @@ export interface OutputPlanning {
    * plan that holds the duty exactly (null when none exists).
    */
   dutyMiss?: { nearestDuty: PlanFigures | null; exactDuty: PlanFigures | null };
+  /** Frequency steps: each step's plan on the shared table, in order (`plan` is the first). */
+  steps?: PlanFigures[];
 }

@@ -24,6 +24,7 @@ import { bandLimitedWave } from '../signal/custom-tables';
 import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
+import { readSteps } from './steps-model';
 import { entryRange, keyRange, locate, valueRange } from './nodes';
 import type { Quantities } from './quantities';
 import type { OutputAnalysis, Range, SpecDiagnostic } from './types';
@@ -84,12 +85,24 @@ export function buildOutput(
   const get = (...key: string[]) => q.get(['outputs', name, ...key]);
   const push = (code: Parameters<typeof diagnostic>[0], range: Range, message: string) => diagnostics.push(diagnostic(code, range, message, name));
 
-  const frequency = get('frequency');
-  if (!frequency) return { draft: null, diagnostics };
-  const targetHz = frequency.value;
+  const tolerance = get('tolerance') ?? parseDefault('tolerance', DEFAULT_TOLERANCE);
+  // One frequency, or steps on one table (steps-model.ts).
+  const stepped = entry.steps === undefined ? null : readSteps(name, entry.steps.length, tolerance, doc, lines);
+  if (stepped !== null) {
+    diagnostics.push(...stepped.diagnostics);
+    Object.assign(valueRanges, stepped.ranges);
+    if (entry.frequency !== undefined) push('unused-key', keyRange(doc, lines, ['outputs', name, 'frequency']) ?? at('frequency'), 'frequency is not read when steps lists the frequencies: remove it, or the steps.');
+    if (entry.plan !== undefined) push('unused-key', keyRange(doc, lines, ['outputs', name, 'plan']) ?? at('plan'), 'A pinned plan is not read on an output with steps: waveplan chooses the table the steps share; remove plan, or the steps.');
+  } else if (entry.frequency === undefined) {
+    push('missing-key', nameRange, `\`${name}\` has neither \`frequency\` nor \`steps\`: add \`frequency: 1 kHz\`, or the steps it moves through.`);
+  }
+  if (stepped !== null && stepped.steps === null) return { draft: null, diagnostics };
+  const frequency = stepped === null ? get('frequency') : undefined;
+  if (stepped === null && !frequency) return { draft: null, diagnostics };
+  const steps = stepped?.steps ?? undefined;
+  const targetHz = steps !== undefined ? steps[0]!.targetHz : frequency!.value;
   const shape = entry.shape;
 
-  const tolerance = get('tolerance') ?? parseDefault('tolerance', DEFAULT_TOLERANCE);
   const floorText = get('min-samples-per-cycle');
   const minSamplesPerCycle = floorText?.value ?? rat(DEFAULT_MIN_SAMPLES_PER_CYCLE[shape]);
   if (shape === 'sine' && cmp(minSamplesPerCycle, rat(NYQUIST_SAMPLES_PER_CYCLE)) <= 0) {
@@ -138,11 +151,12 @@ export function buildOutput(
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
     waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty) },
-    toleranceHz: toleranceHz(tolerance, targetHz),
+    toleranceHz: steps !== undefined ? steps[0]!.toleranceHz : toleranceHz(tolerance, targetHz),
+    ...(steps !== undefined ? { steps } : {}),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
     wholeSamplesPerCycle: entry['whole-samples-per-cycle'] ?? DEFAULT_WHOLE_SAMPLES_PER_CYCLE[shape],
   };
-  if (entry.plan) {
+  if (entry.plan && steps === undefined) {
     const pinned = pinPlan(entry.plan, request.jitter, hw, (key) => get('plan', key)?.value, (key) => valueRanges[`plan.${key}`] ?? at('plan'), push);
     if (!pinned) return { draft: null, diagnostics };
     request.pinned = pinned;
