@@ -16,9 +16,19 @@ interface Stage {
   value: number;
   register: number;
 }
+interface JsonStep {
+  targetHz: number;
+  dividerInteger: number;
+  dividerFraction: number;
+  achievedHz: number;
+  achievedHzExact: string;
+  errorHz: number;
+  errorPpm: number;
+}
 interface JsonOutput {
   name: string;
   identifier: string;
+  steps?: JsonStep[];
   plan: { dividerInteger: number; dividerStages?: Stage[]; tableLength: number; cycles: number; achievedHzExact: string };
 }
 
@@ -41,7 +51,12 @@ beforeAll(async () => {
       '#define PRINT(lower, UPPER) printf("name=%s d=%lu pv=%lu pr=%lu qv=%lu qr=%lu n=%lu m=%lu\\n", #lower, \\',
       '  (unsigned long)UPPER##_DIVIDER_INT, (unsigned long)UPPER##_STAGE_PRESCALER_VALUE, (unsigned long)UPPER##_STAGE_PRESCALER_REGISTER, \\',
       '  (unsigned long)UPPER##_STAGE_PERIOD_VALUE, (unsigned long)UPPER##_STAGE_PERIOD_REGISTER, (unsigned long)UPPER##_TABLE_LENGTH, (unsigned long)UPPER##_CYCLES);',
-      'int main(void) { TONE_BENCH_OUTPUTS(PRINT) return 0; }',
+      // The stepped output's arrays, one line per step.
+      'static void steps(void) { unsigned long i; for (i = 0; i < TONE_BENCH_SCALE_STEP_COUNT; i++)',
+      '  printf("name=step%lu d=%lu pr=%lu qr=%lu n=%lu m=%lu\\n", i, (unsigned long)tone_bench_scale_step_divider_int[i],',
+      '    (unsigned long)tone_bench_scale_step_stage_prescaler_register[i], (unsigned long)tone_bench_scale_step_stage_period_register[i],',
+      '    (unsigned long)TONE_BENCH_SCALE_TABLE_LENGTH, (unsigned long)TONE_BENCH_SCALE_CYCLES); }',
+      'int main(void) { TONE_BENCH_OUTPUTS(PRINT) steps(); return 0; }',
       '',
     ].join('\n'),
   );
@@ -92,6 +107,23 @@ describe('stage dividers in the export (examples/tone-bench: prescaler 1…4096,
       expect(d, o.name).toBe(Number(c.d));
       const f = new Fraction(60_000_000).mul(Number(c.m)).div(d * Number(c.n));
       expect(f.equals(new Fraction(o.plan.achievedHzExact)), o.name).toBe(true);
+    }
+  });
+
+  it('a stepped output: the arrays hold each step’s divider and registers, which make the step’s frequency (fraction.js)', () => {
+    const scale = outputs.find((o) => o.name === 'scale')!;
+    const steps = scale.steps!;
+    expect(steps).toHaveLength(13);
+    for (const [i, st] of steps.entries()) {
+      for (const key of ['targetHz', 'dividerInteger', 'dividerFraction', 'achievedHz', 'errorHz', 'errorPpm'] as const) expect(typeof st[key], `${i} ${key}`).toBe('number');
+      const c = printed.get(`step${i}`)!;
+      const d = (Number(c.pr) + 1) * (Number(c.qr) + 1);
+      expect(d, `step ${i}`).toBe(Number(c.d));
+      expect(d, `step ${i}`).toBe(st.dividerInteger);
+      // f_out = f_sys·M/(D·N) on the one shared table (docs/DESIGN.md "Quantities").
+      const f = new Fraction(60_000_000).mul(Number(c.m)).div(d * Number(c.n));
+      expect(f.equals(new Fraction(st.achievedHzExact)), `step ${i}`).toBe(true);
+      expect(Number(c.n)).toBe(scale.plan.tableLength);
     }
   });
 

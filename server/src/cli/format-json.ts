@@ -32,6 +32,8 @@ export interface JsonOutput {
   withinTolerance: boolean;
   plan: JsonPlan | null;
   nearestJitterFree: JsonPlan | null;
+  /** Frequency steps on the plan's table (absent for one frequency). */
+  steps?: ReturnType<typeof stepsJson>;
   /** S max the ranking used (max-samples-per-cycle or its default); null for none. */
   maxSamplesPerCycle: number | null;
 }
@@ -97,6 +99,25 @@ export function planJson(p: PlanFigures) {
   };
 }
 
+/** Frequency steps: each step's divider on the shared table (the plan's table) and what it gets. */
+export function stepsJson(o: OutputAnalysis) {
+  const targets = o.request.steps ?? [];
+  return (o.planning.steps ?? []).map((p, i) => ({
+    targetHz: toNumber(targets[i]!.targetHz),
+    targetHzExact: exactText(targets[i]!.targetHz),
+    toleranceHz: toNumber(targets[i]!.toleranceHz),
+    dividerInteger: p.dividerInteger,
+    dividerFraction: p.dividerFraction,
+    ...(p.dividerStages !== undefined ? { dividerStages: p.dividerStages.map((st) => ({ name: st.name, value: st.value, register: st.register })) } : {}),
+    achievedHz: toNumber(p.achievedHz),
+    achievedHzExact: exactText(p.achievedHz),
+    errorHz: toNumber(p.errorHz),
+    errorHzExact: exactText(p.errorHz),
+    errorPpm: p.errorPpm,
+    jitterFree: p.jitterFree,
+  }));
+}
+
 function diagnosticJson(d: SpecDiagnostic): JsonDiagnostic {
   return {
     severity: d.severity,
@@ -121,6 +142,7 @@ function outputJson(o: OutputAnalysis, hw: Hardware | null): JsonOutput {
     withinTolerance: o.planning.withinTolerance,
     plan: o.planning.plan ? withSignal(o.planning.plan) : null,
     nearestJitterFree: o.planning.nearestJitterFree ? withSignal(o.planning.nearestJitterFree) : null,
+    ...(o.planning.steps ? { steps: stepsJson(o) } : {}),
     maxSamplesPerCycle: o.request.maxSamplesPerCycle ? toNumber(o.request.maxSamplesPerCycle) : null,
   };
 }

@@ -8,6 +8,7 @@ import { formatHz, formatSeconds } from '../../../shared-schema/src/quantity-for
 import { formatCycles, formatPpm, formatSignedHz } from '../cli/units';
 import { dutyPhrase } from '../spec/planning-diagnostics';
 import { arrayBody, block, cDouble, cUnsigned, defines, lineComment, stageRows, stagesComment } from './c-text';
+import { stepsHeader, stepsSource } from './c-steps';
 import type { OutputIdentifiers } from './identifiers';
 import { specPrefix } from './identifiers';
 import type { LoadedSpec } from './load';
@@ -159,7 +160,7 @@ export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, Ou
   );
   for (const o of exported) {
     const id = ids.get(o.analysis.name)!;
-    h.push(outputComment(o, id, model), outputDefines(o, id, model), tableDeclaration(o, id, ids, type), '');
+    h.push(outputComment(o, id, model), outputDefines(o, id, model), tableDeclaration(o, id, ids, type), ...stepsHeader(o, id), '');
   }
   for (const name of model.unplanned) h.push(block([`${name}: NOT EXPORTED - no plan exists for this output.`]), '');
   h.push('/* Every exported output, for table-driven set-up code: X(lower_name, UPPER_NAME). */');
@@ -182,6 +183,7 @@ export function cFiles(spec: LoadedSpec, model: ExportModel, ids: Map<string, Ou
       arrayBody(o.codes, perLine),
       '};',
       '',
+      ...stepsSource(o, id),
     );
   }
   if (exported.length === 0) c.push('/* No output was exported; this keeps the file a valid translation unit. */', `extern const int ${prefix}_no_outputs;`, '');

@@ -2,7 +2,7 @@
 // what the firmware files hold: the C names, the sample type, the ring alignment and the table.
 
 import { toNumber } from '../../../shared-schema/src/rational';
-import { exactText, planJson } from '../cli/format-json';
+import { exactText, planJson, stepsJson } from '../cli/format-json';
 import { sampleType } from './c-export';
 import type { OutputIdentifiers } from './identifiers';
 import type { LoadedSpec } from './load';
@@ -45,6 +45,7 @@ export function exportJson(specs: readonly ExportedSpec[]): string {
         verdict: o.analysis.planning.verdict,
         tableSpan: o.span,
         plan: planJson(o.plan),
+        ...(o.analysis.planning.steps ? { steps: stepsJson(o.analysis) } : {}),
         alignBytes: model.hardware.memory.powerOfTwo ? ringAlignment(o.plan.tableBytes) : null,
         clippedSamples: o.clipped,
         clippedByLsb: o.clipLsb,

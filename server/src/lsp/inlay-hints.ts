@@ -8,6 +8,7 @@ import type { Analysis, OutputAnalysis } from '../spec/types';
 import { cmp, mul, rat } from '../../../shared-schema/src/rational';
 import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds, significantText } from '../cli/units';
 import { clockShareHint } from './clock-views';
+import { stepsHint } from './divider-views';
 import { VERDICT_WORDS } from './plan-card';
 
 export function hintText(plan: PlanFigures): string {
@@ -34,7 +35,7 @@ export function inlayHints(doc: TextDocument, analysis: Analysis, range: Range):
     const line = output.nameRange.end.line;
     if (line < range.start.line || line > range.end.line) continue;
     const plan = output.planning.plan;
-    const label = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) : 'no plan';
+    const label = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) + stepsHint(output) : 'no plan';
     hints.push({
       position: anchor(doc, output),
       label,

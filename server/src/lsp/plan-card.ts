@@ -5,7 +5,7 @@ import { fromNumber, toNumber } from '../../../shared-schema/src/rational';
 import type { PlanFigures, Verdict } from '../planning/types';
 import type { Analysis, OutputAnalysis } from '../spec/types';
 import { formatBytes, formatCycles, formatDivider, formatHz, formatPpm, formatSeconds } from '../cli/units';
-import { stageRows } from './divider-views';
+import { stageRows, stepsTable } from './divider-views';
 
 export const VERDICT_WORDS: Record<Verdict, string> = {
   exact: 'exact, jitter-free',
@@ -67,6 +67,7 @@ export function outputCard(output: OutputAnalysis): string {
   if (alt && planning.plan && !planning.plan.jitterFree) {
     lines.push('', `Nearest jitter-free plan: ${formatHz(alt.achievedHz)} (${formatPpm(alt.errorPpm)}), ${formatDivider(alt)}, N = ${alt.tableLength}, M = ${formatCycles(alt.cycles)}.`);
   }
+  lines.push(...stepsTable(output));
   return lines.join('\n');
 }
 

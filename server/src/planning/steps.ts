@@ -143,7 +143,10 @@ class StepsSearch {
     // neighbouring windows overlap (E·tol·(2·D min + 1) ≥ f) they hold every table: one plain
     // pass over all of them instead.
     const p = this.pivot;
-    const cover = this.c.toleranceF[p]! > 0 ? this.c.targetF[p]! / (this.c.toleranceF[p]! * (2 * c.jMin + 1)) : Infinity;
+    // A step of tolerance 0 that no table hits exactly leaves every share infinite: no window
+    // bound can help then.
+    const zero = c.toleranceF.some((t) => t === 0);
+    const cover = this.c.toleranceF[p]! > 0 && !zero ? this.c.targetF[p]! / (this.c.toleranceF[p]! * (2 * c.jMin + 1)) : 0;
     for (let e = 2; this.complete; e *= 2) {
       if (e >= cover) {
         this.everyTable();
@@ -154,6 +157,18 @@ class StepsSearch {
       if (this.best !== null && this.best.w <= e) break;
     }
     return this.result();
+  }
+
+  /**
+   * A search stopped by its budget before it judged any table still names one: the first tables
+   * from the S floor up, judged outside the budget (at most a few thousand units).
+   */
+  private anyTable(): void {
+    const saved = this.left;
+    this.left = 4096;
+    const uMax = Number(this.d.sDen) / Number(this.d.sNum);
+    walkFractions(uMax / 2, uMax, this.d.nMax, (m0, n0) => this.judge(m0, n0) && this.best === null);
+    this.left = Math.min(saved, -1);
   }
 
   /** Judges every table (the nearest when no bound helps). */
@@ -192,21 +207,30 @@ class StepsSearch {
       const lo = Math.max(uMin, ((j / s) * (f - spread(bound))) / c.clockF) * (1 - MARGIN);
       const hi = Math.min(uMax, ((j / s) * (f + spread(bound))) / c.clockF) * (1 + MARGIN);
       if (hi < lo) continue;
-      // The second step narrows the window too, when every table that could win needs a whole
-      // divider there within the bound: its windows [D·(f₂ − E·tol₂), D·(f₂ + E·tol₂)]/f_sys.
-      const second = this.order[1];
-      if (second !== undefined && this.wholeNeeded(bound)) {
-        const f2 = c.targetF[second]!;
-        const t2 = spread(bound) * (c.toleranceF[second]! / c.toleranceF[p]!);
-        const dLo = Math.max(c.jMin, Math.floor((c.clockF * lo) / (f2 + t2)));
-        const dHi = Math.min(c.jMax, Math.ceil((c.clockF * hi) / Math.max(f2 - t2, f2 * 1e-300)));
-        for (let d2 = dLo; d2 <= dHi; d2++) {
-          const lo2 = Math.max(lo, ((d2 * (f2 - t2)) / c.clockF) * (1 - MARGIN));
-          const hi2 = Math.min(hi, ((d2 * (f2 + t2)) / c.clockF) * (1 + MARGIN));
-          if (hi2 >= lo2 && !this.fractionsIn(lo2, hi2)) return;
-        }
+      // Every other step narrows the window too, when every table that could win needs a whole
+      // divider on each step within the bound: step i's windows [D·(f_i − E·tol_i), D·(f_i + E·tol_i)]/f_sys.
+      if (this.order.length > 1 && this.wholeNeeded(bound)) {
+        if (!this.narrow(1, lo, hi, bound)) return;
       } else if (!this.fractionsIn(lo, hi)) return;
     }
+  }
+
+  /** The part of [lo, hi] where steps order[level…] are each within `bound` of some whole divider. */
+  private narrow(level: number, lo: number, hi: number, bound: number): boolean {
+    if (level === this.order.length) return this.fractionsIn(lo, hi);
+    const c = this.c;
+    const i = this.order[level]!;
+    const f = c.targetF[i]!;
+    const t = bound * c.toleranceF[i]!;
+    const dLo = Math.max(c.jMin, Math.floor((c.clockF * lo) / (f + t)));
+    const dHi = Math.min(c.jMax, Math.ceil((c.clockF * hi) / Math.max(f - t, f * 1e-300)));
+    if (!this.take(1)) return false;
+    for (let d = dLo; d <= dHi; d++) {
+      const sub = Math.max(lo, ((d * (f - t)) / c.clockF) * (1 - MARGIN));
+      const top = Math.min(hi, ((d * (f + t)) / c.clockF) * (1 + MARGIN));
+      if (top >= sub && !this.narrow(level + 1, sub, top, bound)) return false;
+    }
+    return true;
   }
 
   /** Every table that could beat the best needs whole dividers within this bound on every step. */
@@ -285,6 +309,7 @@ class StepsSearch {
   }
 
   private result(): SteppedPlans | null {
+    if (this.best === null && !this.complete) this.anyTable();
     if (this.best === null) return null;
     const exact = this.finalists.map((t) => ({ t, share: exactShare(this.c, t) }));
     exact.sort((a, b) => compareExact(a.t, a.share, b.t, b.share, this.q));

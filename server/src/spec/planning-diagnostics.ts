@@ -9,6 +9,7 @@ import { clockAccuracyDiagnostic, clockBudgetText } from './clock-budget';
 import { type Code } from './codes';
 import { diagnostic } from './source';
 import type { Range, SpecDiagnostic } from './types';
+import { stepsDiagnostics } from './steps-diagnostics';
 import type { OutputDraft } from './wave-model';
 
 /** D = I + F/2^k as exact decimal text: "3", "1.953125". */
@@ -59,8 +60,10 @@ export function planningDiagnostics(draft: OutputDraft, planning: OutputPlanning
     return out;
   }
 
-  const clockAlone = clockAccuracyDiagnostic(draft, hw, toleranceText);
-  if (clockAlone) {
+  const clockAlone = planning.steps ? undefined : clockAccuracyDiagnostic(draft, hw, toleranceText);
+  if (planning.steps) {
+    out.push(...stepsDiagnostics(draft, planning.steps, hw, planText, jitterText));
+  } else if (clockAlone) {
     out.push(clockAlone);
   } else if (!planning.withinTolerance) {
     const alt = planning.nearestJitterFree;

@@ -4,11 +4,11 @@
 import type { Document } from 'yaml';
 import type { z } from 'zod';
 import { closest, didYouMean } from '../../../shared-schema/src/did-you-mean';
-import { quantityExample } from '../../../shared-schema/src/quantity';
+import { parseQuantity, quantityExample } from '../../../shared-schema/src/quantity';
 import { type FileKind, type KeyInfo, childKeys, lookupKey, schemaOf } from '../../../shared-schema/src/keys';
 import { outputSchema } from '../../../shared-schema/src/wave-schema';
 import { diagnostic, type LineIndex } from './source';
-import { type Path, keyRange, locate, rangeFor, valueRange } from './nodes';
+import { type Path, keyRange, locate, rangeFor, scalarText, valueRange } from './nodes';
 import type { SpecDiagnostic } from './types';
 
 /** The output an issue at `path` is about, in a wave spec. */
@@ -196,7 +196,15 @@ export function schemaDiagnostics(
       out.push(d);
       continue;
     }
-    if (info?.type === 'quantity') continue;
+    if (info?.type === 'quantity') {
+      // Quantities in a list (a step's frequency) are not read key by key (quantities.ts): say
+      // here what is wrong with the text, as the reader would.
+      const listed = path.some((p) => typeof p === 'number');
+      const text = listed ? scalarText(doc, found.value) : undefined;
+      const parsed = text === undefined ? undefined : parseQuantity(info.quantity!.kind, text);
+      if (parsed !== undefined && !parsed.ok) out.push(diagnostic(parsed.code, valueRange(doc, lines, path) ?? rangeFor(doc, lines, path), parsed.message, output));
+      continue;
+    }
     const r = valueRange(doc, lines, path) ?? rangeFor(doc, lines, path);
     const value = valueAt(data, path);
     if (isPlaceholder(value)) {
