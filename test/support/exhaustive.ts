@@ -29,7 +29,8 @@ interface Entry extends OraclePlan {
 
 const max = (a: bigint, b: bigint): bigint => (a > b ? a : b);
 
-function allowedLengths(hw: Hardware): number[] {
+/** Every table length the hardware admits (range, budget, powers of two). */
+export function allowedLengths(hw: Hardware): number[] {
   const out: number[] = [];
   for (let n = Math.max(1, hw.memory.tableLengthMin); n <= hw.memory.tableLengthMax; n++) {
     if (n * hw.dac.sampleBytes > hw.memory.budgetBytes) break;

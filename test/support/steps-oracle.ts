@@ -8,7 +8,7 @@
 import { type Rational, ZERO, abs, add, cmp, div, floor, mul, rat, sub } from '../../shared-schema/src/rational';
 import type { Hardware } from '../../server/src/planning/types';
 import type { StepsQuery } from '../../server/src/planning/steps';
-import { dividerIntegers } from './exhaustive';
+import { allowedLengths, dividerIntegers } from './exhaustive';
 
 export interface OracleStep {
   dividerInteger: number;
@@ -27,16 +27,6 @@ interface Choice extends OracleStep {
   error: Rational;
   within: boolean;
   fractional: boolean;
-}
-
-function lengths(hw: Hardware): number[] {
-  const out: number[] = [];
-  for (let n = Math.max(1, hw.memory.tableLengthMin); n <= hw.memory.tableLengthMax; n++) {
-    if (n * hw.dac.sampleBytes > hw.memory.budgetBytes) break;
-    if (hw.memory.powerOfTwo && (n & (n - 1)) !== 0) continue;
-    out.push(n);
-  }
-  return out;
 }
 
 export function exhaustiveSteps(hw: Hardware, q: StepsQuery): OracleTable | null {
@@ -126,7 +116,7 @@ export function exhaustiveSteps(hw: Hardware, q: StepsQuery): OracleTable | null
     return cmp(b.s, a.s);
   };
   let best: Row | null = null;
-  for (const n of lengths(hw)) {
+  for (const n of allowedLengths(hw)) {
     const mMax = Number(floor(div(rat(n), q.minSamplesPerCycle)));
     for (let m = 1; m <= mMax; m++) {
       if (q.wholeSamplesPerCycle && n % m !== 0) continue;
