@@ -24,9 +24,12 @@ import type { Analysis, OutputAnalysis, Range, SpecDiagnostic } from './types';
 // Menus hold their frontier (one entry per table length where S rises): a small memo bounds the memory.
 const menus = new Memo<string, ShrinkMenu | null>(64);
 
-/** The output can take a smaller plan: planned within tolerance by the engine, not pinned. */
+/**
+ * The output can take a smaller plan: planned within tolerance by the engine, not pinned, one
+ * frequency (a stepped output's table serves every step: it keeps its own).
+ */
 const shrinkable = (o: OutputAnalysis): boolean =>
-  o.request.pinned === undefined && o.planning.plan !== null && o.planning.withinTolerance && o.planning.verdict !== 'pinned';
+  o.request.pinned === undefined && o.request.steps === undefined && o.planning.plan !== null && o.planning.withinTolerance && o.planning.verdict !== 'pinned';
 
 /** The menu of an output (memoised: an edit elsewhere leaves its planning values, and so its key, unchanged). */
 export function menuOf(o: OutputAnalysis, hw: Hardware, own: Plan | null = o.planning.shrunkFrom ?? o.planning.plan): ShrinkMenu | null {
