@@ -118,7 +118,9 @@ const normalise = (kind: FileKind, path: readonly (string | number)[]): (string 
 const pathText = (parts: readonly (string | number)[]): string => parts.map((p) => (typeof p === 'number' ? '[]' : p)).join('.').replace(/\.\[\]/g, '[]');
 
 /** What the schema says about the key at `path` (e.g. ['outputs', 'coil', 'frequency']). */
-export function lookupKey(kind: FileKind, path: readonly (string | number)[]): KeyInfo | undefined {
+export function lookupKey(kind: FileKind, given: readonly (string | number)[]): KeyInfo | undefined {
+  // `steps[]` (as the reference writes it) stands for the key and any item of its list.
+  const path = given.flatMap((p) => (typeof p === 'string' && p.endsWith('[]') ? [p.slice(0, -2), 0] : [p]));
   const declared = schemaAt(kind, path);
   if (!declared) return undefined;
   return describe(declared, path, pathText(normalise(kind, path)));

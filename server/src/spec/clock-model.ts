@@ -14,6 +14,7 @@ import { buildClockTree } from './clock-tree-model';
 import { diagnostic, type LineIndex } from './source';
 import { valueRange, rangeFor } from './nodes';
 import type { Quantities } from './quantities';
+import { placeholderFor } from './schema-issues';
 import type { Range, SpecDiagnostic } from './types';
 
 export function buildHardware(
@@ -83,7 +84,9 @@ function dividerOf(divider: ClockFile['divider'], at: (...path: string[]) => Ran
   const fractionBits = divider['fraction-bits'] ?? DEFAULT_FRACTION_BITS;
   const { integer, stages } = divider;
   if (integer === undefined && stages === undefined) {
-    out.push(diagnostic('missing-key', at('divider'), '`divider` has neither `integer` nor `stages`: add `integer: { min: 1, max: 65535 }`, or the counter stages the divider is built of.'));
+    const d = diagnostic('missing-key', at('divider'), '`divider` has neither `integer` nor `stages`: add `integer: { min: 1, max: 65535 }`, or the counter stages the divider is built of.');
+    d.fix = { key: 'integer', placeholder: placeholderFor('clock', ['divider', 'integer']), parent: ['divider'] };
+    out.push(d);
     return null;
   }
   if (integer !== undefined && stages !== undefined) {

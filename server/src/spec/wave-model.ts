@@ -24,6 +24,7 @@ import { bandLimitedWave } from '../signal/custom-tables';
 import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
+import { placeholderFor } from './schema-issues';
 import { readSteps } from './steps-model';
 import { entryRange, keyRange, locate, valueRange } from './nodes';
 import type { Quantities } from './quantities';
@@ -94,7 +95,9 @@ export function buildOutput(
     if (entry.frequency !== undefined) push('unused-key', keyRange(doc, lines, ['outputs', name, 'frequency']) ?? at('frequency'), 'frequency is not read when steps lists the frequencies: remove it, or the steps.');
     if (entry.plan !== undefined) push('unused-key', keyRange(doc, lines, ['outputs', name, 'plan']) ?? at('plan'), 'A pinned plan is not read on an output with steps: waveplan chooses the table the steps share; remove plan, or the steps.');
   } else if (entry.frequency === undefined) {
-    push('missing-key', nameRange, `\`${name}\` has neither \`frequency\` nor \`steps\`: add \`frequency: 1 kHz\`, or the steps it moves through.`);
+    const d = diagnostic('missing-key', nameRange, `\`${name}\` has neither \`frequency\` nor \`steps\`: add \`frequency: 1 kHz\`, or the steps it moves through.`, name);
+    d.fix = { key: 'frequency', placeholder: placeholderFor('wave', ['outputs', name, 'frequency']), parent: ['outputs', name] };
+    diagnostics.push(d);
   }
   if (stepped !== null && stepped.steps === null) return { draft: null, diagnostics };
   const frequency = stepped === null ? get('frequency') : undefined;
