@@ -26,7 +26,7 @@ export interface RecheckSummary {
 
 export interface RecheckTarget {
   /** Re-checks one file (open: its buffer; closed: the disk) and returns the analysis. */
-  recheck(path: string): Analysis | undefined;
+  recheck(path: string): Promise<Analysis | undefined>;
 }
 
 export async function recheckWorkspace(
@@ -44,7 +44,7 @@ export async function recheckWorkspace(
       await yieldToEvents();
       checkCancelled(token);
       if (progress?.token.isCancellationRequested) break;
-      const analysis = target.recheck(path);
+      const analysis = await target.recheck(path);
       summary.files++;
       for (const d of analysis?.diagnostics ?? []) {
         if (d.severity === 'error') summary.errors++;

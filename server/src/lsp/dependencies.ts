@@ -23,9 +23,13 @@ export class Dependencies {
   ) {}
 
   record(analysis: Analysis): void {
-    if (analysis.kind !== 'wave') return;
-    if (analysis.clockPath) this.clockOf.set(analysis.path, analysis.clockPath);
-    else this.clockOf.delete(analysis.path);
+    if (analysis.kind === 'wave') this.recordClock(analysis.path, analysis.clockPath);
+  }
+
+  /** The clock file a wave spec reads (from clockReference when the spec was not analysed). */
+  recordClock(wave: string, clock: string | null): void {
+    if (clock) this.clockOf.set(wave, clock);
+    else this.clockOf.delete(wave);
   }
 
   forget(path: string): void {
@@ -52,7 +56,7 @@ export class Dependencies {
       } else {
         // Long chains of closed files: let edits and cancellations in between them.
         await yieldToEvents();
-        this.publisher.publishClosed(wave);
+        await this.publisher.publishClosed(wave);
       }
     }
   }

@@ -8,7 +8,8 @@ import {
   type Diagnostic,
 } from 'vscode-languageserver/node';
 import type { Analysis, Severity, SpecDiagnostic } from '../spec/types';
-import type { SpecDocuments } from './documents';
+import { type SpecDocuments, uriToPath } from './documents';
+import { type ProgressFactory, SlowProgress } from './progress';
 
 export const SOURCE = 'waveplan';
 
@@ -44,6 +45,10 @@ export class DiagnosticsPublisher {
   private readonly timers = new Map<string, NodeJS.Timeout>();
   /** Called with every fresh analysis, so the dependency map follows the text. */
   onAnalysed: (analysis: Analysis) => void = () => {};
+  /** Called when an analysis that requests may have seen partial is complete. */
+  onSliced: () => void = () => {};
+  /** Opens a progress indicator in the client (when it supports them). */
+  progress: ProgressFactory | undefined;
 
   constructor(
     private readonly connection: Connection,
@@ -60,27 +65,39 @@ export class DiagnosticsPublisher {
       uri,
       setTimeout(() => {
         this.timers.delete(uri);
-        this.publishOpen(uri);
+        void this.publishOpen(uri).catch(() => undefined);
       }, this.delayMs),
     );
   }
 
-  /** Analyses the current version now and publishes it. */
-  publishOpen(uri: string): void {
+  /**
+   * Analyses the current version (in slices, so other requests are answered meanwhile) and
+   * publishes it; a version replaced before its analysis is done is dropped, never shown.
+   */
+  async publishOpen(uri: string): Promise<Analysis | undefined> {
     const doc = this.docs.get(uri);
-    if (!doc) return;
+    if (!doc) return undefined;
     const version = doc.version;
-    const analysis = this.docs.analysisOf(doc);
-    // The analysis is synchronous, but guard anyway: only the newest text may be shown.
-    if (this.docs.get(uri) !== doc) return;
-    this.onAnalysed(analysis);
-    void this.connection.sendDiagnostics({ uri, version, diagnostics: toLspDiagnostics(analysis, version) });
+    const progress = new SlowProgress(this.progress, uriToPath(uri).split(/[\\/]/).pop() ?? uri);
+    try {
+      const made = await this.docs.analysisInSlices(doc, (p) => progress.report(p));
+      if (!made || this.docs.get(uri) !== doc) return undefined;
+      this.onAnalysed(made.analysis);
+      void this.connection.sendDiagnostics({ uri, version, diagnostics: toLspDiagnostics(made.analysis, version) });
+      // Requests answered while it was being made saw it partial: let the editor ask again.
+      if (made.sliced) this.onSliced();
+      return made.analysis;
+    } finally {
+      progress.done();
+    }
   }
 
   /** Checks a file that is not open (a wave spec whose clock changed) and publishes the result. */
-  publishClosed(path: string): Analysis | undefined {
+  async publishClosed(path: string): Promise<Analysis | undefined> {
     if (this.docs.isOpen(path)) return undefined;
-    const analysis = this.docs.analyzeClosed(path);
+    const analysis = await this.docs.analyzeClosedInSlices(path);
+    // Opened meanwhile: the buffer is what counts now.
+    if (this.docs.isOpen(path)) return undefined;
     const uri = this.docs.uriOfPath(path);
     if (!analysis) {
       void this.connection.sendDiagnostics({ uri, diagnostics: [] });

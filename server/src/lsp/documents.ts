@@ -11,9 +11,31 @@ import { TextDocuments, type TextDocumentContentChangeEvent, type TextDocumentsC
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { nodeFileSystem } from '../cli/disk';
 import { ContainedReader } from '../spec/containment';
+import type { AnalysisRun } from '../spec/analyze';
 import type { Analysis, SpecHost } from '../spec/types';
+import type { Progress } from '../spec/wave-fast';
+import { yieldToEvents } from './safe';
 
 export type AnalyzeFn = (path: string, text: string, host: SpecHost) => Analysis;
+export type AnalyzeInStepsFn = (path: string, text: string, host: SpecHost) => AnalysisRun;
+
+/**
+ * How long an analysis runs before it lets other messages in (a request, a newer edit, a
+ * cancellation). One output's planning is never split, so a slice can run over by one plan.
+ */
+const SLICE_MS = 15;
+
+/** An analysis being made in slices. */
+interface Job {
+  doc: TextDocument;
+  run: AnalysisRun;
+  done: Promise<Analysis | undefined>;
+  /** Whether it let other messages in at least once (so requests may have seen it partial). */
+  sliced: boolean;
+  /** How far it has come, and who wants to know. */
+  last?: Progress;
+  progress?: (p: Progress) => void;
+}
 
 /**
  * Analyses kept in memory. One of a 200-output spec holds about 1 MB of plans, so a hundred open
@@ -88,11 +110,17 @@ export class SpecDocuments {
   /** Where analyses may read: set from the workspace folders by the server. */
   readonly workspace = new WorkspaceReads();
 
-  constructor(private readonly analyze: AnalyzeFn) {
+  private readonly jobs = new Map<string, Job>();
+
+  constructor(
+    private readonly analyze: AnalyzeFn,
+    private readonly analyzeSteps?: AnalyzeInStepsFn,
+  ) {
     this.documents.onDidOpen((e) => this.byPath.set(uriToPath(e.document.uri), e.document.uri));
     this.documents.onDidClose((e) => {
       this.byPath.delete(uriToPath(e.document.uri));
       this.cache.delete(e.document.uri);
+      this.jobs.delete(e.document.uri);
     });
   }
 
@@ -152,21 +180,105 @@ export class SpecDocuments {
    * than the open one (a request that waited) is analysed without displacing the newest.
    */
   analysisOf(doc: TextDocument): Analysis {
-    const uri = doc.uri;
-    const hit = this.cache.get(uri);
-    if (hit && hit.doc === doc) {
-      // Map order is the recency order: move the entry to the end.
-      this.cache.delete(uri);
-      this.cache.set(uri, hit);
-      return hit.analysis;
-    }
+    const hit = this.cached(doc);
+    if (hit) return hit;
+    // Being made in slices: a request meanwhile answers from what it holds so far (every
+    // finding before planning, the outputs planned), never from another version's analysis.
+    const job = this.jobs.get(doc.uri);
+    if (job?.doc === doc) return job.run.analysis;
+    if (this.analyzeSteps) return this.start(doc).run.analysis;
     const reads = new Set<string>();
-    const analysis = this.analyze(uriToPath(uri), doc.getText(), this.host(reads, uriToPath(uri)));
-    if (this.documents.get(uri) !== doc) return analysis;
-    this.cache.delete(uri);
-    this.cache.set(uri, { doc, analysis, reads });
-    if (this.cache.size > KEPT_ANALYSES) this.cache.delete(this.cache.keys().next().value!);
+    const analysis = this.analyze(uriToPath(doc.uri), doc.getText(), this.host(reads, uriToPath(doc.uri)));
+    this.keep(doc, analysis, reads);
     return analysis;
+  }
+
+  /** True while the snapshot's analysis is being made in slices (analysisOf then gives it partial). */
+  isPartial(doc: TextDocument): boolean {
+    return this.jobs.get(doc.uri)?.doc === doc;
+  }
+
+  private cached(doc: TextDocument): Analysis | undefined {
+    const hit = this.cache.get(doc.uri);
+    if (!hit || hit.doc !== doc) return undefined;
+    // Map order is the recency order: move the entry to the end.
+    this.cache.delete(doc.uri);
+    this.cache.set(doc.uri, hit);
+    return hit.analysis;
+  }
+
+  private keep(doc: TextDocument, analysis: Analysis, reads: Set<string>): void {
+    if (this.documents.get(doc.uri) !== doc) return;
+    this.cache.delete(doc.uri);
+    this.cache.set(doc.uri, { doc, analysis, reads });
+    if (this.cache.size > KEPT_ANALYSES) this.cache.delete(this.cache.keys().next().value!);
+  }
+
+  /**
+   * The analysis of the snapshot, made in slices of SLICE_MS with other messages let in between,
+   * so the server answers while a large file is planned. Undefined when the snapshot stopped being
+   * the open one before the analysis was done: the newest text is planned first, and the outputs
+   * planned meanwhile stay in the spec layer's memo for it. `sliced` tells the caller whether
+   * requests may have seen the analysis partial.
+   */
+  async analysisInSlices(doc: TextDocument, progress?: (p: Progress) => void): Promise<{ analysis: Analysis; sliced: boolean } | undefined> {
+    const hit = this.cached(doc);
+    if (hit) return { analysis: hit, sliced: false };
+    if (!this.analyzeSteps) return { analysis: this.analysisOf(doc), sliced: false };
+    const running = this.jobs.get(doc.uri);
+    const job = running?.doc === doc ? running : this.start(doc);
+    job.progress = progress;
+    const analysis = await job.done;
+    return analysis && { analysis, sliced: job.sliced };
+  }
+
+  /**
+   * Starts the snapshot's analysis: its first slice now (a small file is done in it), the rest
+   * after other messages. A snapshot older than the open one is analysed but never kept.
+   */
+  private start(doc: TextDocument): Job {
+    const uri = doc.uri;
+    const reads = new Set<string>();
+    const run = this.analyzeSteps!(uriToPath(uri), doc.getText(), this.host(reads, uriToPath(uri)));
+    const job: Job = { doc, run, sliced: false, done: Promise.resolve(undefined) };
+    const finished = this.slice(job);
+    if (finished) {
+      this.keep(doc, finished, reads);
+      job.done = Promise.resolve(finished);
+      return job;
+    }
+    this.jobs.set(uri, job);
+    job.done = this.rest(job, reads).finally(() => {
+      if (this.jobs.get(uri) === job) this.jobs.delete(uri);
+    });
+    return job;
+  }
+
+  /** Runs the analysis for SLICE_MS; its result when it is done within them. */
+  private slice(job: Job): Analysis | undefined {
+    const start = performance.now();
+    for (;;) {
+      const step = job.run.steps.next();
+      if (step.done) return step.value;
+      job.last = step.value;
+      if (performance.now() - start >= SLICE_MS) return undefined;
+    }
+  }
+
+  private async rest(job: Job, reads: Set<string>): Promise<Analysis | undefined> {
+    const uri = job.doc.uri;
+    for (;;) {
+      if (job.last) job.progress?.(job.last);
+      job.sliced = true;
+      await yieldToEvents();
+      // A newer text, a close or a changed clock file: this analysis is no longer wanted.
+      if (this.documents.get(uri) !== job.doc || this.jobs.get(uri) !== job) return undefined;
+      const finished = this.slice(job);
+      if (finished) {
+        this.keep(job.doc, finished, reads);
+        return finished;
+      }
+    }
   }
 
   /** Analysis of a file that is not open (disk text; other files still through open buffers). */
@@ -175,6 +287,22 @@ export class SpecDocuments {
     const text = host.readFile(path);
     if (text === undefined) return undefined;
     return this.analyze(path, text, this.host(new Set(), path));
+  }
+
+  /** The same, made in slices with other messages let in between (a closed file is never stale). */
+  async analyzeClosedInSlices(path: string): Promise<Analysis | undefined> {
+    const text = this.hostFor(path).readFile(path);
+    if (text === undefined) return undefined;
+    if (!this.analyzeSteps) return this.analyze(path, text, this.host(new Set(), path));
+    const { steps } = this.analyzeSteps(path, text, this.host(new Set(), path));
+    let sliceStart = performance.now();
+    for (;;) {
+      const step = steps.next();
+      if (step.done) return step.value;
+      if (performance.now() - sliceStart < SLICE_MS) continue;
+      await yieldToEvents();
+      sliceStart = performance.now();
+    }
   }
 
   /** The analysis of an open document's text with a quick fix applied (its preview); never cached. */
@@ -186,6 +314,9 @@ export class SpecDocuments {
   /** Drops cached analyses that read `path`, so the next request re-analyses them. */
   invalidateReaders(path: string): string[] {
     const dropped: string[] = [];
+    // An analysis being made may have read the old text already: start it again.
+    for (const uri of this.jobs.keys()) dropped.push(uri);
+    this.jobs.clear();
     for (const [uri, entry] of this.cache) {
       if (entry.reads.has(path)) {
         this.cache.delete(uri);
@@ -197,9 +328,11 @@ export class SpecDocuments {
 
   invalidate(uri: string): void {
     this.cache.delete(uri);
+    this.jobs.delete(uri);
   }
 
   invalidateAll(): void {
     this.cache.clear();
+    this.jobs.clear();
   }
 }

@@ -14,7 +14,8 @@ import {
   type InitializeResult,
   type WorkspaceFolder,
 } from 'vscode-languageserver/node';
-import { analyze } from '../spec/analyze';
+import { analyze, analyzeInSteps } from '../spec/analyze';
+import { clockReference } from '../spec/clock-reference';
 import { syntaxOf } from '../spec/syntax';
 import { SyntaxTrees } from './yaml-path';
 import { codeActions } from './code-actions';
@@ -38,7 +39,7 @@ const SCAN_SLICE = 20;
 export function startServer(): void {
   const connection = createConnection(ProposedFeatures.all);
   const log = connection.console;
-  const docs = new SpecDocuments(analyze);
+  const docs = new SpecDocuments(analyze, analyzeInSteps);
   const trees = new SyntaxTrees();
   const settings = new SettingsCache(connection);
   const publisher = new DiagnosticsPublisher(connection, docs);
@@ -59,6 +60,7 @@ export function startServer(): void {
     canRefreshHints = !!caps.workspace?.inlayHint?.refreshSupport;
     canRefreshLenses = !!caps.workspace?.codeLens?.refreshSupport;
     canCreateProgress = !!caps.window?.workDoneProgress;
+    publisher.progress = canCreateProgress ? () => connection.window.createWorkDoneProgress() : undefined;
     canFollowFolders = !!caps.workspace?.workspaceFolders;
     folders = (params.workspaceFolders ?? []).map((f: WorkspaceFolder) => uriToPath(f.uri));
     if (folders.length === 0 && params.rootUri) folders = [uriToPath(params.rootUri)];
@@ -93,14 +95,15 @@ export function startServer(): void {
           }),
         );
       }
-      // Learn which wave specs read which clock file, so a clock edit reaches closed specs too.
-      // A small workspace is read before any later message is handled; a large one in slices.
+      // Learn which wave specs read which clock file, so a clock edit reaches closed specs too:
+      // only their `clock:` lines are read, nothing is planned. A small workspace is read before
+      // any later message is handled; a large one in slices.
       const waves = findSpecFiles(folders).filter((p) => p.endsWith('.wave.yaml'));
       for (const [index, path] of waves.entries()) {
         if (index > 0 && index % SCAN_SLICE === 0) await yieldToEvents();
         if (docs.isOpen(path)) continue;
-        const analysis = docs.analyzeClosed(path);
-        if (analysis) deps.record(analysis);
+        const text = docs.hostFor(path).readFile(path);
+        if (text !== undefined) deps.recordClock(path, clockReference(path, text));
       }
       if (canWatchFiles) {
         await connection.client.register(DidChangeWatchedFilesNotification.type, {
@@ -112,6 +115,11 @@ export function startServer(): void {
 
   const refreshViews = (): void => {
     if (canRefreshHints) void connection.languages.inlayHint.refresh().catch(() => undefined);
+  };
+  // Requests answered while an analysis was being made in slices saw it partial.
+  publisher.onSliced = () => {
+    refreshViews();
+    if (canRefreshLenses) void connection.sendRequest(CodeLensRefreshRequest.type).catch(() => undefined);
   };
 
   /** A spec's text changed (buffer or disk): re-check it and everything that reads it. */
@@ -132,7 +140,7 @@ export function startServer(): void {
       trees.forget(e.document.uri);
       settings.forget(e.document.uri);
       // Closed: the disk text counts again, for the file itself and for what reads it.
-      if (isSpecPath(path) && !publisher.publishClosed(path)) publisher.clear(e.document.uri);
+      if (isSpecPath(path) && !(await publisher.publishClosed(path))) publisher.clear(e.document.uri);
       if (path.endsWith('.clock.yaml')) await deps.recheckReaders(path);
     }),
   );
@@ -146,10 +154,10 @@ export function startServer(): void {
           deps.forget(path);
           publisher.clear(change.uri);
         } else if (path.endsWith('.wave.yaml')) {
-          publisher.publishClosed(path);
+          await publisher.publishClosed(path);
         }
         if (path.endsWith('.clock.yaml')) {
-          if (change.type !== FileChangeType.Deleted) publisher.publishClosed(path);
+          if (change.type !== FileChangeType.Deleted) await publisher.publishClosed(path);
           await deps.recheckReaders(path);
         }
       }
@@ -246,8 +254,7 @@ export function startServer(): void {
               const doc = docs.get(uri);
               if (!doc) return publisher.publishClosed(path);
               docs.invalidate(uri);
-              publisher.publishOpen(uri);
-              return docs.analysisOf(doc);
+              return publisher.publishOpen(uri);
             },
           },
           progress,
@@ -258,7 +265,7 @@ export function startServer(): void {
         const uri = typeof params.arguments?.[0] === 'string' ? params.arguments[0] : undefined;
         if (!uri) throw new Error('waveplan.planReport needs the URI of a spec as its argument');
         const open = docs.get(uri);
-        const analysis = open ? docs.analysisOf(open) : docs.analyzeClosed(uriToPath(uri));
+        const analysis = open ? (await docs.analysisInSlices(open))?.analysis : await docs.analyzeClosedInSlices(uriToPath(uri));
         if (!analysis) throw new Error(`cannot read ${uri}`);
         return planReport(analysis, uriToPath(uri).split(/[\\/]/).pop() ?? uri);
       }

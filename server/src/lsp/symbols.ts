@@ -4,7 +4,7 @@
 
 import { SymbolKind, type DocumentSymbol, type Position, type Range } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import type { Analysis } from '../spec/types';
+import type { Analysis, OutputAnalysis } from '../spec/types';
 import type { SyntaxTree } from './yaml-path';
 import { hintText } from './inlay-hints';
 import { VERDICT_WORDS } from './plan-card';
@@ -23,12 +23,23 @@ function symbol(name: string, detail: string, kind: SymbolKind, range: Range, se
   return { name: name === '' ? '(unnamed)' : name, detail, kind, range: cover(range, selectionRange), selectionRange };
 }
 
-export function waveSymbols(analysis: Analysis): DocumentSymbol[] {
-  return analysis.outputs.map((output) => {
+// An output's symbol depends on nothing but its analysis object, which the spec layer hands out
+// again while the output is untouched and stays on its line: an edit elsewhere reuses it.
+const outputSymbols = new WeakMap<OutputAnalysis, DocumentSymbol>();
+
+function outputSymbol(output: OutputAnalysis): DocumentSymbol {
+  let found = outputSymbols.get(output);
+  if (!found) {
     const plan = output.planning.plan;
     const detail = plan ? hintText(plan) : VERDICT_WORDS[output.planning.verdict];
-    return symbol(output.name, detail, SymbolKind.Event, output.entryRange, output.nameRange);
-  });
+    found = symbol(output.name, detail, SymbolKind.Event, output.entryRange, output.nameRange);
+    outputSymbols.set(output, found);
+  }
+  return found;
+}
+
+export function waveSymbols(analysis: Analysis): DocumentSymbol[] {
+  return analysis.outputs.map(outputSymbol);
 }
 
 export function clockSymbols(doc: TextDocument, tree: SyntaxTree): DocumentSymbol[] {

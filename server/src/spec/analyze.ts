@@ -18,7 +18,7 @@ import { validate } from './schema-issues';
 import { type Source, WAVE_OUTPUTS, diagnostic, readSource } from './source';
 import { documentTree, setSyntax } from './syntax';
 import type { Analysis, Range, SpecDiagnostic, SpecHost } from './types';
-import { type WaveSteps, analyzeWaveFast } from './wave-fast';
+import { type Progress, type WaveSteps, analyzeWaveFastSteps, finish } from './wave-fast';
 import { outputNames } from './wave-model';
 
 /** More outputs than this in one file are not planned (each plan is a search). */
@@ -27,7 +27,23 @@ export const MAX_OUTPUTS = 500;
 export const kindOf = (path: string): FileKind => (/\.clock\.ya?ml$/i.test(path) ? 'clock' : 'wave');
 
 export function analyze(path: string, text: string, host: SpecHost): Analysis {
-  return run(path, text, host, true);
+  return finish(run(newAnalysis(path, text), host, true));
+}
+
+/** An analysis being made: `steps` yields after each output it plans, `analysis` is filled so far. */
+export interface AnalysisRun {
+  analysis: Analysis;
+  steps: Generator<Progress, Analysis>;
+}
+
+/**
+ * The same analysis in steps, for a server that answers other requests while a large file is
+ * planned: between steps the analysis holds every diagnostic found before planning and the
+ * outputs planned so far; the last step returns it whole.
+ */
+export function analyzeInSteps(path: string, text: string, host: SpecHost): AnalysisRun {
+  const analysis = newAnalysis(path, text);
+  return { analysis, steps: run(analysis, host, true) };
 }
 
 /**
@@ -35,18 +51,19 @@ export function analyze(path: string, text: string, host: SpecHost): Analysis {
  * the split reading (wave-fast.ts) must match, and a way to rule it out when chasing a problem.
  */
 export function analyzeWhole(path: string, text: string, host: SpecHost): Analysis {
-  return run(path, text, host, false);
+  return finish(run(newAnalysis(path, text), host, false));
 }
 
-function run(path: string, text: string, host: SpecHost, split: boolean): Analysis {
-  const analysis: Analysis = { path, kind: kindOf(path), text, diagnostics: [], outputs: [], hardware: null, clockPath: null, memory: null };
+const newAnalysis = (path: string, text: string): Analysis => ({ path, kind: kindOf(path), text, diagnostics: [], outputs: [], hardware: null, clockPath: null, memory: null });
+
+function* run(analysis: Analysis, host: SpecHost, split: boolean): Generator<Progress, Analysis> {
   try {
     if (analysis.kind === 'clock') {
-      const clock = readClock(text);
+      const clock = readClock(analysis.text);
       analysis.diagnostics = clock.diagnostics;
       analysis.hardware = clock.hardware;
     } else {
-      analyzeWave(analysis, host, split);
+      yield* analyzeWave(analysis, host, split);
     }
   } catch (e) {
     analysis.diagnostics.push(diagnostic('internal-error', { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, `waveplan failed while checking this file (${String((e as Error)?.message ?? e).slice(0, 120)}): please report the input.`));
@@ -77,20 +94,20 @@ export function readClock(text: string): { hardware: Hardware | null; diagnostic
   return { hardware: built.hardware, diagnostics: [...diagnostics, ...built.diagnostics] };
 }
 
-function analyzeWave(analysis: Analysis, host: SpecHost, split: boolean): void {
+function* analyzeWave(analysis: Analysis, host: SpecHost, split: boolean): Generator<Progress, void> {
   const steps: WaveSteps = {
     maxOutputs: MAX_OUTPUTS,
     resolveClock: (a, clock, range) => resolveClock(a, clock, range, host),
     overBudget,
   };
-  if (split && splitReading(analysis, steps)) return;
-  analyzeWaveWhole(analysis, host);
+  if (split && (yield* splitReading(analysis, steps))) return;
+  yield* analyzeWaveWhole(analysis, host);
 }
 
 /** The split reading, or false (with the analysis left empty) so the file is read whole. */
-function splitReading(analysis: Analysis, steps: WaveSteps): boolean {
+function* splitReading(analysis: Analysis, steps: WaveSteps): Generator<Progress, boolean> {
   try {
-    if (analyzeWaveFast(analysis, steps)) return true;
+    if (yield* analyzeWaveFastSteps(analysis, steps)) return true;
   } catch {
     // Whatever failed here, reading the file whole gives the analysis or reports the failure.
   }
@@ -99,7 +116,7 @@ function splitReading(analysis: Analysis, steps: WaveSteps): boolean {
 }
 
 /** The whole file read at once: every wave spec gives this analysis, however it is laid out. */
-function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
+function* analyzeWaveWhole(analysis: Analysis, host: SpecHost): Generator<Progress, void> {
   const { src, diagnostics, quantities } = read('wave', analysis.text);
   analysis.diagnostics = diagnostics;
   setSyntax(analysis, documentTree(src.tree, analysis.text));
@@ -119,7 +136,8 @@ function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
   }
   let usedBytes = 0;
   const steps = stepsPerOutput(Math.min(names.length, MAX_OUTPUTS));
-  for (const name of names.slice(0, MAX_OUTPUTS)) {
+  const planning = names.slice(0, MAX_OUTPUTS);
+  for (const [index, name] of planning.entries()) {
     const entry = (data.outputs as Record<string, unknown> | undefined)?.[name];
     const blocked = diagnostics.some((d) => d.output === name && d.severity === 'error' && d.code !== 'duplicate-output');
     if (blocked || !outputSchema.safeParse(entry).success) continue;
@@ -127,6 +145,7 @@ function analyzeWaveWhole(analysis: Analysis, host: SpecHost): void {
     diagnostics.push(...planned.diagnostics);
     if (planned.output) analysis.outputs.push(planned.output);
     usedBytes += planned.tableBytes;
+    yield { planned: index + 1, total: planning.length };
   }
   const grouped = applyGroups(analysis, data.groups, hardware, doc, src.lines);
   overBudget(analysis, grouped ?? usedBytes, hardware, outputsKey);

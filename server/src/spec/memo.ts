@@ -24,6 +24,12 @@ export class Memo<K, V> {
     return value;
   }
 
+  set(key: K, value: V): void {
+    this.entries.delete(key);
+    this.entries.set(key, value);
+    if (this.entries.size > this.capacity) this.entries.delete(this.entries.keys().next().value as K);
+  }
+
   clear(): void {
     this.entries.clear();
   }

@@ -35,6 +35,14 @@ export interface PieceReading {
   planned: WeakMap<Hardware, Map<number, PlannedOutput | null>>;
   /** The parse, kept only until the first planning so a new output is not parsed twice. */
   parsed?: Parsed;
+  /** The diagnostics and output moved to the file's lines, for the line the piece was last on. */
+  placed?: { line: number; schema: SpecDiagnostic[]; quantities: SpecDiagnostic[][]; planned?: PlannedOutput; atLine?: PlacedPlan };
+}
+
+/** A planned output at the file's lines. */
+export interface PlacedPlan {
+  diagnostics: SpecDiagnostic[];
+  output?: OutputAnalysis;
 }
 
 const NOT_READABLE: PieceReading = { ok: false, schema: [], quantities: [], plannable: false, planned: new WeakMap() };
@@ -123,13 +131,24 @@ function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware, ste
 
 // Two files at the 500-output limit, each edited many times, stay within this; a larger memo
 // costs the language server resident memory (bench/lsp.ts) for little gain.
-const readings = new Memo<string, PieceReading>(1000);
+// Keyed by the piece's text alone (no key string is built per piece and edit); the follower and
+// column, which also shape the reading, are checked on the entry, and a mismatch reads again.
+const readings = new Memo<string, { follower: string; column: number; reading: PieceReading }>(1000);
 
 const keyOf = (piece: OutputPiece): string => `${piece.follower}\u0000${piece.column}\u0000${piece.text}`;
 
 export function readPiece(piece: OutputPiece): PieceReading {
-  return readings.get(keyOf(piece), () => read(piece));
+  const fresh = () => ({ follower: piece.follower, column: piece.column, reading: read(piece) });
+  let entry = readings.get(piece.text, fresh);
+  if (entry.follower !== piece.follower || entry.column !== piece.column) {
+    entry = fresh();
+    readings.set(piece.text, entry);
+  }
+  return entry.reading;
 }
+
+/** Whether the piece is planned on this hardware already (planPiece then costs nothing). */
+export const isPlanned = (reading: PieceReading, hardware: Hardware, steps: number): boolean => reading.planned.get(hardware)?.has(steps) === true;
 
 /** The planned output; null when it does not read on its own (the file is then read whole). */
 export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number): PlannedOutput | null {
@@ -157,6 +176,32 @@ export function mapPiece(piece: OutputPiece) {
     return { ...o, nameRange: range(o.nameRange), entryRange: range(o.entryRange), valueRanges };
   };
   return { range, diag, output };
+}
+
+// Placed objects are shared by every analysis in which the piece sits on the same line, so an
+// edit that moves no line rebuilds nothing for the untouched outputs (and the language server's
+// per-object caches hit). Nothing may change them after placing.
+
+function placedAt(piece: OutputPiece, reading: PieceReading): NonNullable<PieceReading['placed']> {
+  if (reading.placed?.line === piece.line) return reading.placed;
+  const { diag } = mapPiece(piece);
+  reading.placed = { line: piece.line, schema: reading.schema.map(diag), quantities: reading.quantities.map((q) => q.map(diag)) };
+  return reading.placed;
+}
+
+/** The reading's schema and quantity diagnostics at the file's lines. */
+export function placeReading(piece: OutputPiece, reading: PieceReading): { schema: SpecDiagnostic[]; quantities: SpecDiagnostic[][] } {
+  return placedAt(piece, reading);
+}
+
+/** The planned output at the file's lines. */
+export function placePlan(piece: OutputPiece, reading: PieceReading, planned: PlannedOutput): PlacedPlan {
+  const placed = placedAt(piece, reading);
+  if (placed.planned === planned && placed.atLine) return placed.atLine;
+  const { diag, output } = mapPiece(piece);
+  placed.planned = planned;
+  placed.atLine = { diagnostics: planned.diagnostics.map(diag), output: planned.output && output(planned.output) };
+  return placed.atLine;
 }
 
 /**

@@ -6,7 +6,7 @@
 // of its own marked `keyed: false`, read only for its syntax errors while the file does not parse.
 // Anything else returns null and the file is read whole, which gives the same analysis, only slower.
 
-import { linesWithBreaks, withoutBreak } from './line-breaks';
+import { lineStarts } from './line-breaks';
 import { MAX_FILE_CHARS } from './source';
 
 /** What follows an output's piece in the file; the piece is read with the same kind of line after it. */
@@ -47,34 +47,42 @@ export interface Segments {
 const OUTPUTS_LINE = /^outputs:(?:[ ]+(?:#.*)?)?$/;
 const NAME = /^[A-Za-z_][A-Za-z0-9_-]{0,63}$/;
 
-const indentOf = (line: string): number => {
-  let i = 0;
-  while (i < line.length && line.charCodeAt(i) === 32) i++;
-  return i;
-};
-
-/** Blank or comment-only: no YAML content on the line. */
-const isQuiet = (line: string, indent: number): boolean => indent === line.length || line.charCodeAt(indent) === 35;
+const SPACE = 32;
+const HASH = 35;
+const CR = 13;
+const LF = 10;
 
 /** An output key alone on its line (a value or a comment may follow after a space). */
 function outputKey(line: string, indent: number): string | undefined {
   const colon = line.indexOf(':', indent);
-  if (colon < 0 || (colon + 1 < line.length && line.charCodeAt(colon + 1) !== 32)) return undefined;
+  if (colon < 0 || (colon + 1 < line.length && line.charCodeAt(colon + 1) !== SPACE)) return undefined;
   const name = line.slice(indent, colon);
   return NAME.test(name) ? name : undefined;
 }
 
+// The text is walked by offsets, not split into line strings: an edit re-splits the whole file,
+// and this must stay cheap next to re-reading the one output that changed.
 export function splitWave(text: string, maxOutputs: number): Segments | null {
   if (text.length > MAX_FILE_CHARS || text.includes('\t')) return null;
-  const raw = linesWithBreaks(text);
-  const lines = raw.map(withoutBreak);
-  const start = lines.findIndex((l) => OUTPUTS_LINE.test(l));
+  const starts = lineStarts(text);
+  const count = starts[starts.length - 1] === text.length && starts.length > 1 ? starts.length - 1 : starts.length;
+  /** Where line i's text ends, before its break. */
+  const contentEnd = (i: number): number => {
+    let end = i + 1 < starts.length ? starts[i + 1] : text.length;
+    if (end > starts[i] && text.charCodeAt(end - 1) === LF) end--;
+    if (end > starts[i] && text.charCodeAt(end - 1) === CR) end--;
+    return end;
+  };
+  const lineText = (i: number): string => text.slice(starts[i], contentEnd(i));
+
+  let start = -1;
+  for (let i = 0; i < count && start < 0; i++) if (text.startsWith('outputs:', starts[i]) && OUTPUTS_LINE.test(lineText(i))) start = i;
   if (start < 0) return null;
 
   let end = start + 1;
-  while (end < lines.length) {
-    const l = lines[end];
-    if (l.length > 0 && l.charCodeAt(0) !== 32 && l.charCodeAt(0) !== 35) break;
+  while (end < count) {
+    const c = starts[end] < contentEnd(end) ? text.charCodeAt(starts[end]) : SPACE;
+    if (c !== SPACE && c !== HASH) break;
     end++;
   }
 
@@ -84,40 +92,42 @@ export function splitWave(text: string, maxOutputs: number): Segments | null {
   const names = new Set<string>();
   let column = -1;
   for (let i = start + 1; i < end; i++) {
-    const l = lines[i];
-    const indent = indentOf(l);
-    if (isQuiet(l, indent)) continue;
+    const from = starts[i];
+    const to = contentEnd(i);
+    let at = from;
+    while (at < to && text.charCodeAt(at) === SPACE) at++;
+    if (at === to || text.charCodeAt(at) === HASH) continue;
+    const indent = at - from;
     if (column < 0) column = indent;
     if (column === 0) return null;
     if (indent > column) {
       if (keyLines.length === 0) return null;
       continue;
     }
-    const name = indent === column ? outputKey(l, indent) : undefined;
+    const name = indent === column ? outputKey(text.slice(from, to), indent) : undefined;
     if (name === '__proto__' || (name !== undefined && names.has(name))) return null;
     if (name !== undefined) names.add(name);
     keyLines.push({ line: i, name });
   }
   if (keyLines.length === 0 || keyLines.length > maxOutputs) return null;
 
-  const offsets: number[] = [0];
-  for (const r of raw) offsets.push(offsets[offsets.length - 1] + r.length);
+  const offset = (i: number): number => (i < starts.length ? starts[i] : text.length);
   const pieces: OutputPiece[] = keyLines.map(({ line, name }, k) => {
     const next = k + 1 < keyLines.length ? keyLines[k + 1].line : end;
-    const follower: Follower = k + 1 < keyLines.length ? 'sibling' : end < lines.length ? 'top-level' : 'end';
+    const follower: Follower = k + 1 < keyLines.length ? 'sibling' : end < count ? 'top-level' : 'end';
     return {
-      name: name ?? lines[line].trim(),
+      name: name ?? lineText(line).trim(),
       keyed: name !== undefined,
       line,
       column,
-      start: offsets[line],
-      text: text.slice(offsets[line], offsets[next]),
+      start: offset(line),
+      text: text.slice(offset(line), offset(next)),
       follower,
     };
   });
 
   const first = keyLines[0].line;
-  const headEnd = offsets[first];
-  const tailStart = offsets[end];
+  const headEnd = offset(first);
+  const tailStart = offset(end);
   return { frameText: text.slice(0, headEnd) + text.slice(tailStart), headEnd, headLines: first, tailStart, pieceLines: end - first, outputsLine: start, pieces };
 }

@@ -13,14 +13,13 @@ import { stepsPerOutput } from '../planning/work';
 import { type FrameReading, frameSyntax } from './frame-tolerant';
 import { Memo } from './memo';
 import { keyRange, valueRange } from './nodes';
-import { type PieceReading, mapPiece, pieceSyntax, planPiece, readPiece } from './output-cache';
-import type { PlannedOutput } from './output-plan';
+import { type PieceReading, isPlanned, mapPiece, pieceSyntax, placePlan, placeReading, planPiece, readPiece } from './output-cache';
 import { quantityKeys } from './quantities';
 import { type Segments, splitWave } from './segments';
 import { WAVE_OUTPUTS, flowDepthBreach, readSource } from './source';
 import { splitTree } from './split-tree';
 import { setSyntax } from './syntax';
-import type { Analysis, OutputAnalysis, Range, SpecDiagnostic } from './types';
+import type { Analysis, Range, SpecDiagnostic } from './types';
 
 function readFrame(text: string): FrameReading | null {
   const src = readSource(text, WAVE_OUTPUTS);
@@ -65,19 +64,44 @@ function brokenYaml(text: string): SpecDiagnostic[] | undefined {
   return syntax.length === src.diagnostics.length ? syntax : undefined;
 }
 
+/** How far an analysis has come: outputs planned of those it plans. */
+export interface Progress {
+  planned: number;
+  total: number;
+}
+
+/** Runs steps to the end. */
+export function finish<T>(steps: Generator<Progress, T>): T {
+  let step = steps.next();
+  while (!step.done) step = steps.next();
+  return step.value;
+}
+
 export function analyzeWaveFast(analysis: Analysis, steps: WaveSteps): boolean {
+  return finish(analyzeWaveFastSteps(analysis, steps));
+}
+
+/**
+ * The split reading in steps: it yields after each output it had to plan (not after a memo hit),
+ * with the analysis filled so far (every diagnostic before planning, the outputs planned).
+ */
+export function* analyzeWaveFastSteps(analysis: Analysis, steps: WaveSteps): Generator<Progress, boolean> {
   const text = analysis.text;
   if (!outputQuantitiesOnly()) return false;
   const seg = splitWave(text, steps.maxOutputs);
   if (!seg || flowDepthBreach(text) !== undefined) return false;
   const exactFrame = frames.get(seg.frameText, readFrame);
-  const readings: PieceReading[] = seg.pieces.map(readPiece);
+  // Reading a new file's pieces takes a while too: let other work in between them.
+  const readings: PieceReading[] = [];
+  for (const piece of seg.pieces) {
+    readings.push(readPiece(piece));
+    if (readings.length % 8 === 0) yield { planned: 0, total: seg.pieces.length };
+  }
   const exact = exactFrame !== null && readings.every((r) => r.ok);
   const wholeSyntax = exact ? undefined : brokenYaml(text);
   if (!exact && !wholeSyntax) return false;
   const frame = exactFrame ?? frameSyntax(seg.frameText);
   const toFile = frameMapper(seg);
-  const maps = seg.pieces.map(mapPiece);
   setSyntax(analysis, splitTree(seg));
 
   // The order reading the file whole gives: syntax errors, then schema issues output by output,
@@ -86,36 +110,40 @@ export function analyzeWaveFast(analysis: Analysis, steps: WaveSteps): boolean {
   if (wholeSyntax) {
     const local = [...frame.syntax.map((d) => ({ ...d, range: toFile(d.range) }))];
     readings.forEach((r, i) => {
-      if (!r.ok) local.push(...pieceSyntax(seg.pieces[i]).map(maps[i].diag));
+      if (!r.ok) local.push(...pieceSyntax(seg.pieces[i]).map(mapPiece(seg.pieces[i]).diag));
     });
     // Each part reads alone yet the whole does not (a bracket that spans outputs): the whole's errors.
     diagnostics.push(...(local.length > 0 ? local : wholeSyntax));
   }
-  readings.forEach((r, i) => diagnostics.push(...r.schema.map(maps[i].diag)));
-  quantityKeys('wave').forEach((_, k) => readings.forEach((r, i) => diagnostics.push(...(r.quantities[k] ?? []).map(maps[i].diag))));
+  const placed = readings.map((r, i) => (r.ok ? placeReading(seg.pieces[i], r) : undefined));
+  for (const p of placed) if (p) diagnostics.push(...p.schema);
+  quantityKeys('wave').forEach((_, k) => placed.forEach((p) => p && diagnostics.push(...(p.quantities[k] ?? []))));
   analysis.diagnostics = diagnostics;
 
   if (frame.clock === undefined || !frame.clockRange) return true;
   const hardware = steps.resolveClock(analysis, frame.clock, toFile(frame.clockRange));
   if (!hardware) return true;
 
-  const planned: (PlannedOutput | undefined)[] = [];
   const share = stepsPerOutput(seg.pieces.length);
-  for (let i = 0; i < seg.pieces.length; i++) {
-    const p = readings[i].plannable ? planPiece(seg.pieces[i], readings[i], hardware, share) : undefined;
-    if (p === null && exact) return false;
-    planned.push(p ?? undefined);
-  }
   analysis.hardware = hardware;
-  const outputs: OutputAnalysis[] = [];
+  const total = readings.filter((r) => r.plannable).length;
+  let done = 0;
   let usedBytes = 0;
-  planned.forEach((p, i) => {
-    if (!p) return;
-    diagnostics.push(...p.diagnostics.map(maps[i].diag));
-    if (p.output) outputs.push(maps[i].output(p.output));
+  for (let i = 0; i < seg.pieces.length; i++) {
+    if (!readings[i].plannable) continue;
+    const fresh = !isPlanned(readings[i], hardware, share);
+    const p = planPiece(seg.pieces[i], readings[i], hardware, share);
+    done++;
+    if (p === null) {
+      if (exact) return false;
+      continue;
+    }
+    const atLine = placePlan(seg.pieces[i], readings[i], p);
+    diagnostics.push(...atLine.diagnostics);
+    if (atLine.output) analysis.outputs.push(atLine.output);
     usedBytes += p.tableBytes;
-  });
-  analysis.outputs = outputs;
+    if (fresh) yield { planned: done, total };
+  }
   const outputsLine: Range = { start: { line: seg.outputsLine, character: 0 }, end: { line: seg.outputsLine, character: 'outputs'.length } };
   steps.overBudget(analysis, usedBytes, hardware, frame.outputsKey ? toFile(frame.outputsKey) : outputsLine);
   return true;
