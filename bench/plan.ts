@@ -8,21 +8,10 @@ import { rat, parseDecimal, toNumber } from '../shared-schema/src/rational';
 import { bestFractionalBy, nearestJitterFreeBy, type Strategy } from '../server/src/planning/search';
 import type { Hardware, Plan, PlanRequest } from '../server/src/planning/types';
 import { seededRandom } from '../test/support/seeded';
+import { FRACTION_BITS, INTEGER_MAX, SYSTEM_CLOCK_HZ, TABLE_MAX, TABLE_MIN, fullDomainBoard } from './full-domain';
 
 
-// An invented board of its own (no real part's defaults): a 245.76 MHz system clock (a 12.288 MHz
-// crystal times 20), an 18-bit integer divider with 6 fraction bits, a 14-bit DMA transfer counter.
-const SYSTEM_CLOCK_HZ = 245_760_000;
-const INTEGER_MAX = 2 ** 18 - 1;
-const FRACTION_BITS = 6;
-const TABLE_MIN = 16;
-const TABLE_MAX = 2 ** 14 - 1;
-const board = (fractionBits: number): Hardware => ({
-  systemClockHz: rat(SYSTEM_CLOCK_HZ),
-  divider: { integerMin: 1, integerMax: INTEGER_MAX, fractionBits },
-  dac: { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: rat(SYSTEM_CLOCK_HZ) },
-  memory: { budgetBytes: 64 * 1024, tableLengthMin: TABLE_MIN, tableLengthMax: TABLE_MAX, powerOfTwo: false },
-});
+const board = fullDomainBoard;
 
 const TARGETS = Number(process.env.TARGETS ?? 200);
 const BRUTE = Number(process.env.BRUTE ?? 3);

@@ -10,13 +10,10 @@ import { nearestJitterFree } from '../server/src/planning/search';
 import { nearestWholeCycle } from '../server/src/planning/whole';
 import type { Hardware, OutputRequest } from '../server/src/planning/types';
 import { seededRandom } from '../test/support/seeded';
+import { FRACTION_BITS, fullDomainBoard, fullDomainText } from './full-domain';
 
-const hw: Hardware = {
-  systemClockHz: rat(125_000_000),
-  divider: { integerMin: 1, integerMax: 65535, fractionBits: 8 },
-  dac: { bits: 12, sampleBytes: 2, fullScaleV: 3.3, maxSampleRateHz: rat(125_000_000) },
-  memory: { budgetBytes: 64 * 1024, tableLengthMin: 16, tableLengthMax: 32768, powerOfTwo: false },
-};
+// The planner benchmark's board, with its fraction bits.
+const hw: Hardware = fullDomainBoard(FRACTION_BITS);
 const TARGETS = Number(process.env.TARGETS ?? 200);
 const REPEAT = Math.max(1, Number(process.env.REPEAT ?? 3));
 const rnd = seededRandom(0xbe7c4);
@@ -61,7 +58,7 @@ for (const shape of ['sine', 'square'] as const) {
   const after = time(reqs, (r) => planOutputUncached(hw, r));
   const line = (label: string, ms: number[]): string =>
     `${label.padEnd(44)} median ${quantile(ms, 0.5).toFixed(3)} ms  p95 ${quantile(ms, 0.95).toFixed(3)} ms  max ${Math.max(...ms).toFixed(2)} ms  ≤ 2 ms: ${ms.filter((x) => x <= 2).length}/${ms.length}`;
-  console.log(`${shape}, ${TARGETS} targets 1 Hz…2 MHz, 125 MHz, I 1…65535 (8 fraction bits), N 16…32768, ±50 ppm:`);
+  console.log(`${shape}, ${TARGETS} targets 1 Hz…2 MHz, ${fullDomainText(FRACTION_BITS)}, ±50 ppm:`);
   console.log(line('  nearest plan alone (the search before)', before));
   console.log(line('  planOutput: ranking + figures (now)', after));
   // Within the share of a 500-output file's work (planning/work.ts), realistic outputs still finish.
