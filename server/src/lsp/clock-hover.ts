@@ -2,6 +2,7 @@
 // output of the wave specs that read it (one board, one clock), from the joint search.
 
 import { hasAlternatives, rankClocks } from '../spec/clock-candidates';
+import { specBoardOf } from '../spec/board-budget';
 import type { Analysis } from '../spec/types';
 import { candidatesMarkdown } from './clock-candidates-view';
 
@@ -10,7 +11,7 @@ export function systemClockHover(clock: Analysis, readers: readonly Analysis[]):
   if (clock.kind !== 'clock' || !hasAlternatives(hw)) return undefined;
   const requests = readers.flatMap((r) => r.outputs.map((o) => o.request));
   if (requests.length === 0) return 'No wave spec in the workspace reads this clock file yet, so there are no outputs to rank its system clocks for.';
-  const result = rankClocks(hw, requests);
+  const result = rankClocks(hw, readers.map(specBoardOf));
   if (!result) return 'The clock tree is too large to rank here: narrow the PLL ranges.';
   return candidatesMarkdown(hw, result, requests, 'Ranked system clocks');
 }

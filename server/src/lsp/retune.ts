@@ -5,7 +5,7 @@
 import { CodeActionKind, type CodeAction, type Diagnostic } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { parseDocument, isScalar } from 'yaml';
-import { cmp } from '../../../shared-schema/src/rational';
+import { cmp, isExactDecimal } from '../../../shared-schema/src/rational';
 import { aboveRated, clockCandidatesOf, countsOf, countsOfAnalysis } from '../spec/clock-candidates';
 import type { Analysis } from '../spec/types';
 import { formatHz } from '../cli/units';
@@ -34,7 +34,8 @@ export function retuneActions(analysis: Analysis, d: Diagnostic, readClock: (pat
   const before = countsOfAnalysis(analysis);
   const better = result.candidates.filter((c) => {
     const after = countsOf(c);
-    return cmp(c.clock.systemClockHz, hw.systemClockHz) !== 0 && (after.within > before.within || (after.within === before.within && after.exact > before.exact));
+    // The edit writes decimal text: a clock it could only round (100/3 MHz) would not be the clock ranked.
+    return isExactDecimal(c.clock.systemClockHz) && cmp(c.clock.systemClockHz, hw.systemClockHz) !== 0 && (after.within > before.within || (after.within === before.within && after.exact > before.exact));
   });
   if (better.length === 0) return [];
   const text = readClock(analysis.clockPath);

@@ -5,10 +5,10 @@
 //   1. at or below the rated maximum (an overclocked candidate is listed, with the caution, after
 //      every rated one);
 //   2. more outputs within tolerance (the clock's own tolerance counted in);
-//   3. the tables fit the memory budget;
+//   3. the tables fit the memory budget (after the board's budget fit, as the checker fits them);
 //   4. more outputs exact;  5. more outputs jitter-free (and within tolerance);
 //   6. smaller worst error relative to tolerance, over the outputs (exact rationals);
-//   7. fewer table bytes;  8. more VCO margin;  9. nearer the system clock in use;
+//   7. fewer table bytes (after the fit; a table shared through start offsets once);  8. more VCO margin;  9. nearer the system clock in use;
 //   10. the lower clock.
 // A clock that cannot feed every peripheral is ruled out before any of this.
 
@@ -98,8 +98,17 @@ export function boundPart(hw: Hardware, req: OutputRequest, exactPossible: boole
   };
 }
 
-/** The score of a clock from its outputs' parts. */
-export function scoreOf(parts: readonly Part[], hw: Hardware, clock: { rated: boolean; margin: number; clockHz: Rational }, current: Rational): Score {
+/** Per spec, the parts' bytes within the memory budget (each wave spec is fitted on its own). */
+export function partsFit(parts: readonly Part[], specOf: readonly number[], specs: number, budgetBytes: number): boolean[] {
+  const bytes = new Array<number>(specs).fill(0);
+  parts.forEach((p, k) => {
+    bytes[specOf[k]!]! += p.bytes;
+  });
+  return bytes.map((b) => b <= budgetBytes);
+}
+
+/** The score of a clock from its outputs' parts; `fits`: every spec's tables fit the budget. */
+export function scoreOf(parts: readonly Part[], fits: boolean, clock: { rated: boolean; margin: number; clockHz: Rational }, current: Rational): Score {
   let within = 0;
   let exact = 0;
   let jitterFree = 0;
@@ -115,7 +124,7 @@ export function scoreOf(parts: readonly Part[], hw: Hardware, clock: { rated: bo
   return {
     rated: clock.rated,
     within,
-    fits: bytes <= hw.memory.budgetBytes,
+    fits,
     exact,
     jitterFree,
     worst,
@@ -140,4 +149,19 @@ export function compareScores(a: Score, b: Score): number {
   const d = cmp(a.distance, b.distance);
   if (d !== 0) return d;
   return cmp(a.clockHz, b.clockHz);
+}
+
+/**
+ * The part of a planned output that the budget fit may still shrink: the fit keeps it within
+ * tolerance (so `within` is as planned) and may trade its other figures either way, so each is
+ * the better of the plan's and the bound's.
+ */
+export function shrinkBound(actual: Part, bound: Part): Part {
+  return {
+    within: actual.within,
+    exact: Math.max(actual.exact, bound.exact),
+    jitterFree: Math.max(actual.jitterFree, bound.jitterFree),
+    worst: compareShare(actual.worst, bound.worst) <= 0 ? actual.worst : bound.worst,
+    bytes: Math.min(actual.bytes, bound.bytes),
+  };
 }

@@ -4,18 +4,17 @@
 // those of its new plan, plus an information diagnostic naming what it gave up; when no choice
 // within tolerance fits, one `over-budget` error names the outputs that take the most and the
 // least total that would fit. Runs on the analysis of a whole file, read whole or output by
-// output, after the per-output memo (a menu per output is memoised by its planning values).
+// output, after the per-output memo (a menu per output is memoised by its planning values). The
+// steps are the planner's (planning/board-plan.ts), which the joint search over clocks shares.
 
 import { formatBytes } from '../../../shared-schema/src/quantity-format';
 import { type Rational, div, isInteger, rat, sub, toDecimal } from '../../../shared-schema/src/rational';
 import { DEFAULT_TOLERANCE } from '../../../shared-schema/src/defaults';
-import { type BoardFit, type BoardOutput, fitBoard } from '../planning/board';
+import type { BoardFit } from '../planning/board';
+import { type GroupSpec, type SpecBoard, fitSpec, fittedPlannings, newMenu, shrinkable } from '../planning/board-plan';
 import { planningKey } from '../planning/cache';
-import { preferenceOf } from '../planning/choose';
-import { realisesDuty } from '../planning/duty';
-import { describePlan } from '../planning/figures';
-import { ShrinkMenu } from '../planning/shrink';
-import type { Hardware, OutputPlanning, Plan, PlanFigures } from '../planning/types';
+import type { ShrinkMenu } from '../planning/shrink';
+import type { Hardware, OutputRequest, Plan } from '../planning/types';
 import { Memo } from './memo';
 import { planText, planningDiagnostics } from './planning-diagnostics';
 import { diagnostic } from './source';
@@ -24,50 +23,38 @@ import type { Analysis, OutputAnalysis, Range, SpecDiagnostic } from './types';
 // Menus hold their frontier (one entry per table length where S rises): a small memo bounds the memory.
 const menus = new Memo<string, ShrinkMenu | null>(64);
 
-/**
- * The output can take a smaller plan: planned within tolerance by the engine, not pinned, one
- * frequency (a stepped output's table serves every step: it keeps its own).
- */
-const shrinkable = (o: OutputAnalysis): boolean =>
-  o.request.pinned === undefined && o.request.steps === undefined && o.planning.plan !== null && o.planning.withinTolerance && o.planning.verdict !== 'pinned';
-
 /** The menu of an output (memoised: an edit elsewhere leaves its planning values, and so its key, unchanged). */
 export function menuOf(o: OutputAnalysis, hw: Hardware, own: Plan | null = o.planning.shrunkFrom ?? o.planning.plan): ShrinkMenu | null {
-  if (!shrinkable(o) || own === null) return null;
-  const plan = own;
-  return menus.get(`${planningKey(hw, o.request)}|${plan.dividerInteger},${plan.dividerFraction},${plan.tableLength},${plan.cycles.num}`, () => {
-    const pref = preferenceOf(o.request, hw);
-    const s = div(rat(BigInt(plan.tableLength)), plan.cycles);
-    const dutyKept = pref.duty !== null && realisesDuty(pref.duty, s) ? pref.duty : null;
-    return new ShrinkMenu(hw, o.targetHz, o.request.minSamplesPerCycle, pref, plan, o.request.wholeSamplesPerCycle === true, dutyKept);
-  });
+  if (!shrinkable(o.request, o.planning) || own === null) return null;
+  return menuAt(hw, o.request, own);
+}
+
+/** The memoised menu of a request's plan `own`. */
+export function menuAt(hw: Hardware, req: OutputRequest, own: Plan): ShrinkMenu | null {
+  return menus.get(`${planningKey(hw, req)}|${own.dividerInteger},${own.dividerFraction},${own.tableLength},${own.cycles.num}`, () => newMenu(hw, req, own));
+}
+
+/** The outputs and groups of a wave spec's analysis as the planner sees them. */
+export function specBoardOf(analysis: Analysis): SpecBoard {
+  const index = new Map(analysis.outputs.map((o, i) => [o.name, i] as const));
+  const groups: GroupSpec[] = (analysis.groups ?? []).map((g) => ({
+    lock: g.lock,
+    members: g.members.map((m) => index.get(m)!),
+    offsetsDeg: g.offsetsDeg,
+    sharedTable: g.offsetsAs === 'start-offset',
+  }));
+  return { requests: analysis.outputs.map((o) => o.request), groups };
 }
 
 /** The board fit of an analysis's outputs (their own plans when within budget). */
-export function boardFit(outputs: readonly OutputAnalysis[], hw: Hardware): BoardFit {
-  const board: BoardOutput[] = outputs.map((o) => ({
-    bytes: o.planning.plan?.tableBytes ?? 0,
-    menu: menuOf(o, hw),
-    pref: preferenceOf(o.request, hw),
-  }));
-  const own = board.reduce((t, b) => t + b.bytes, 0);
-  // The menus are built only when the budget is exceeded.
-  if (own <= hw.memory.budgetBytes) return fitBoard(board.map((b) => ({ ...b, menu: null })), hw.memory.budgetBytes);
-  return fitBoard(board, hw.memory.budgetBytes);
+export function boardFit(analysis: Analysis, hw: Hardware): BoardFit {
+  return fitSpec(hw, specBoardOf(analysis), analysis.outputs.map((o) => o.planning), menuAt);
 }
 
 const sText = (p: Plan): string => {
   const s: Rational = div(rat(BigInt(p.tableLength)), p.cycles);
   return isInteger(s) ? s.num.toString() : toDecimal(s, 3);
 };
-
-/** The planning of an output that takes `plan` instead of its own. */
-export function shrunkPlanning(old: OutputPlanning, plan: PlanFigures): OutputPlanning {
-  const verdict = !plan.jitterFree ? 'fractional' : plan.errorHz.num === 0n ? 'exact' : 'within-tolerance';
-  const planning = { verdict, plan, nearestJitterFree: old.nearestJitterFree, withinTolerance: true, shrunkFrom: old.plan! } as OutputPlanning;
-  Object.defineProperty(planning, 'bestFractional', { get: () => old.bestFractional, enumerable: true });
-  return planning;
-}
 
 const sameDiagnostic = (a: SpecDiagnostic, b: SpecDiagnostic): boolean =>
   a.code === b.code && a.message === b.message && a.output === b.output &&
@@ -79,7 +66,7 @@ export function fitToBudget(analysis: Analysis, hw: Hardware, outputsKey: Range,
   const budgetBytes = hw.memory.budgetBytes;
   analysis.memory = { usedBytes, budgetBytes };
   if (usedBytes <= budgetBytes) return;
-  const fit = boardFit(analysis.outputs, hw);
+  const fit = boardFit(analysis, hw);
   if (!fit.fits) {
     const largest = analysis.outputs
       .filter((o) => o.planning.plan !== null)
@@ -90,11 +77,12 @@ export function fitToBudget(analysis: Analysis, hw: Hardware, outputsKey: Range,
     return;
   }
   const added: SpecDiagnostic[] = [];
+  const fitted = fittedPlannings(hw, specBoardOf(analysis), analysis.outputs.map((o) => o.planning), fit);
   analysis.outputs = analysis.outputs.map((o, i) => {
     const chosen = fit.plans[i];
     if (!chosen) return o;
-    const plan = describePlan(hw, o.request, o.request.waveform, chosen, 'open');
-    const planning = shrunkPlanning(o.planning, plan);
+    const planning = fitted[i]!;
+    const plan = planning.plan!;
     const toleranceText = o.toleranceText ?? DEFAULT_TOLERANCE;
     const stale = planningDiagnostics(o, o.planning, hw, toleranceText);
     analysis.diagnostics = analysis.diagnostics.filter((d) => !stale.some((s) => sameDiagnostic(s, d)));

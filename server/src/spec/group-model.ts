@@ -5,7 +5,9 @@ import type { Document } from 'yaml';
 import { DEFAULT_TOLERANCE } from '../../../shared-schema/src/defaults';
 import type { GroupEntry } from '../../../shared-schema/src/wave-schema';
 import { formatSeconds } from '../../../shared-schema/src/quantity-format';
-import { type GroupPlanning, planPhaseGroup, planSharedClock } from '../planning/groups';
+import { countedBytes, planGroup, sharingOutputs } from '../planning/board-plan';
+import { specBoardOf } from './board-budget';
+import type { GroupPlanning } from '../planning/groups';
 import type { Hardware } from '../planning/types';
 import { Memo } from './memo';
 import { keyRange, locate, rangeFor, scalarText, valueRange } from './nodes';
@@ -66,9 +68,7 @@ export function applyGroups(analysis: Analysis, groups: Record<string, GroupEntr
     const key = [lock, offsetsAs, JSON.stringify(entry['phase-offsets'] ?? {}), ...reqs.map((r) => planningKey(hw, r))].join('\u0001');
     const offsets = members.map((m) => entry['phase-offsets']?.[m.name] ?? 0);
     const group = planned.get(key, () =>
-      lock === 'phase'
-        ? planPhaseGroup(hw, reqs, members.map((m) => m.planning), offsets, offsetsAs === 'start-offset' ? 1 : members.length)
-        : planSharedClock(hw, reqs, members.map((m) => m.planning)),
+      planGroup(hw, { lock, members: members.map((_, i) => i), offsetsDeg: offsets, sharedTable: offsetsAs === 'start-offset' }, reqs, members.map((m) => m.planning)),
     );
     members.forEach((m, i) => {
       m.planning = group.plans[i]!;
@@ -88,14 +88,11 @@ export function applyGroups(analysis: Analysis, groups: Record<string, GroupEntr
         ),
       );
     });
-    out.push({ name, lock, offsetsAs, members: members.map((m) => m.name), phases: group.phases });
+    out.push({ name, lock, offsetsAs, members: members.map((m) => m.name), offsetsDeg: offsets, phases: group.phases });
   }
   analysis.groups = out;
   // Members sharing one table through start offsets take its bytes once.
-  let bytes = 0;
-  const shared = new Set(out.filter((g) => g.offsetsAs === 'start-offset').flatMap((g) => g.members.slice(1)));
-  for (const o of analysis.outputs) if (!shared.has(o.name)) bytes += o.planning.plan?.tableBytes ?? 0;
-  return bytes;
+  return countedBytes(analysis.outputs.map((o) => o.planning), sharingOutputs(specBoardOf(analysis)));
 }
 
 function gcdOf(a: number, b: number): number {

@@ -66,6 +66,8 @@ export interface GroupAnalysis {
   offsetsAs: 'table-rotation' | 'start-offset';
   /** Member output names, the first is the phase reference. */
   members: string[];
+  /** Each member's stated offset ahead of the first, degrees (0 where none is stated). */
+  offsetsDeg: number[];
   /** Phase-locked groups: each member's offset as realised (null without a plan). */
   phases: PhaseResult[] | null;
 }

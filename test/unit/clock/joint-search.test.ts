@@ -2,11 +2,12 @@
 // seeded small boards with reduced PLL spaces, the pruned search returns the same best clocks,
 // in the same order, with the same scores and plans, as planning every output on every clock.
 import { describe, expect, it } from 'vitest';
-import { type Rational, ZERO, parseDecimal, rat, toNumber } from '../../../shared-schema/src/rational';
+import { type Rational, ZERO, mul, parseDecimal, rat, toNumber } from '../../../shared-schema/src/rational';
 import { type ClockTree, FIXED_CLOCK, type PllRanges } from '../../../server/src/planning/clock-source';
 import { exactPossible } from '../../../server/src/planning/exact-reach';
 import { planOutputUncached } from '../../../server/src/planning/choose';
 import { jointSearch, jointSearchExhaustive } from '../../../server/src/planning/joint-search';
+import { type GroupSpec, plainSpec } from '../../../server/src/planning/board-plan';
 import type { Hardware, OutputRequest } from '../../../server/src/planning/types';
 import { seededRandom } from '../../support/seeded';
 import { analyze } from '../../../server/src/spec/analyze';
@@ -15,7 +16,7 @@ import { clockCandidatesJson } from '../../../server/src/cli/clock-json';
 const hz = (t: string): Rational => parseDecimal(t)!;
 const sine = { shape: 'sine' as const, duty: 0.5, amplitudeVpp: 1, offsetV: 1 };
 
-function board(random: () => number): { hw: Hardware; requests: OutputRequest[] } {
+function board(random: () => number): { hw: Hardware; requests: OutputRequest[]; groups: GroupSpec[] } {
   const pick = (lo: number, hi: number) => lo + Math.floor(random() * (hi - lo + 1));
   const crystal = [8e6, 10e6, 12e6, 16e6, 25e6][pick(0, 4)]!;
   const r0 = pick(1, 3);
@@ -52,7 +53,19 @@ function board(random: () => number): { hw: Hardware; requests: OutputRequest[] 
       jitter: random() < 0.3 ? 'allow' : 'forbid',
     };
   });
-  return { hw, requests };
+  // A group on a third of the boards with two outputs or more: a shared sample clock, a phase
+  // lock with offsets, or one table two DMA channels start at different samples of.
+  const groups: GroupSpec[] = [];
+  if (requests.length >= 2 && random() < 0.35) {
+    // A shared divider is searched one value at a time: a short divider range keeps the oracle quick.
+    hw.divider.integerMax = Math.min(hw.divider.integerMax, 40);
+    const lock = (['sample-clock', 'phase', 'phase'] as const)[pick(0, 2)]!;
+    const sharedTable = lock === 'phase' && random() < 0.4;
+    if (lock === 'phase' && !sharedTable && random() < 0.5) requests[1] = { ...requests[1]!, targetHz: mul(requests[0]!.targetHz, rat(pick(2, 3))) };
+    if (sharedTable) requests[1] = { ...requests[0]! };
+    groups.push({ lock, members: [0, 1], offsetsDeg: lock === 'phase' ? [0, [90, 120, 45][pick(0, 2)]!] : [0, 0], sharedTable });
+  }
+  return { hw, requests, groups };
 }
 
 const summary = (r: ReturnType<typeof jointSearch>) =>
@@ -69,16 +82,26 @@ describe('joint search = exhaustive joint search (every output planned on every 
     let clocks = 0;
     let planned = 0;
     let exhaustivePlans = 0;
+    let grouped = 0;
+    let shrunk = 0;
+    let overBudget = 0;
     for (let k = 0; k < 300; k++) {
-      const { hw, requests } = board(random);
-      const fast = jointSearch(hw, requests, 5);
-      const slow = jointSearchExhaustive(hw, requests, 5);
+      const { hw, requests, groups } = board(random);
+      const spec = { requests, groups };
+      const fast = jointSearch(hw, [spec], 5);
+      const slow = jointSearchExhaustive(hw, [spec], 5);
       expect(summary(fast), `board ${k}`).toEqual(summary(slow));
+      grouped += groups.length;
+      shrunk += slow!.candidates.filter((c) => c.plans.some((p) => p.shrunkFrom)).length;
+      overBudget += slow!.candidates.filter((c) => !c.score.fits).length;
       clocks += slow!.reachable;
       planned += fast!.plansMade;
       exhaustivePlans += slow!.plansMade;
     }
-    console.log(`joint search vs exhaustive: 300 boards, ${clocks} reachable clocks, ${planned} plans made against ${exhaustivePlans} exhaustive, 0 mismatches`);
+    console.log(`joint search vs exhaustive: 300 boards (${grouped} with a group), ${clocks} reachable clocks, ${planned} plans made against ${exhaustivePlans} exhaustive; among the best five ${shrunk} candidates fitted to the budget, ${overBudget} over it; 0 mismatches`);
+    // The proof must reach the budget fit and the groups, or it proves less than it says.
+    expect(grouped).toBeGreaterThan(30);
+    expect(shrunk).toBeGreaterThan(30);
   });
 
   it('the exact-plan test never rules out a clock where the planner finds an exact plan (1000 seeded cases)', () => {
@@ -124,7 +147,7 @@ describe('the board of the clock-tree brief, with a PLL able to reach 120 MHz (i
   it('at 100 MHz the nearest plans are -4.36 and -40.69 ppm; the first candidate makes both exact with 16-sample tables (32 B each)', () => {
     const now = requests.map((r) => planOutputUncached(hw, r));
     expect(now.map((p) => Number(p.plan!.errorPpm.toFixed(2)))).toEqual([-4.36, -40.69]);
-    const result = jointSearch(hw, requests, 5)!;
+    const result = jointSearch(hw, [plainSpec(requests)], 5)!;
     const first = result.candidates[0]!;
     expect(first.score.exact).toBe(2);
     expect(first.plans.map((p) => p.plan!.tableLength)).toEqual([16, 16]);
@@ -133,7 +156,7 @@ describe('the board of the clock-tree brief, with a PLL able to reach 120 MHz (i
     // 120 MHz: 40 kHz = 120 MHz / 375 · 2/16 and 1.5 MHz = 120 MHz / 10 · 2/16 (derived).
     const at120 = result.candidates.find((c) => toNumber(c.clock.systemClockHz) === 120e6);
     expect(at120?.plans.map((p) => [p.plan!.dividerInteger, p.plan!.tableLength, Number(p.plan!.cycles.num)])).toEqual([[375, 16, 2], [10, 16, 2]]);
-    expect(summary(result)).toEqual(summary(jointSearchExhaustive(hw, requests, 5)));
+    expect(summary(result)).toEqual(summary(jointSearchExhaustive(hw, [plainSpec(requests)], 5)));
   });
 });
 

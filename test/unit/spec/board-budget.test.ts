@@ -49,3 +49,22 @@ describe.each([
     expect(analyzeWhole(path, text, diskHost)).toStrictEqual(a);
   });
 });
+
+describe('a group under a tight budget keeps its group plans (small board, probes on one sample clock)', () => {
+  const path = join(BOARDS, 'small.wave.yaml');
+  const text = `${readFileSync(path, 'utf8')}groups:\n  probes:\n    outputs: [probe-a, probe-b]\n`;
+  const a = analyze(path, text, diskHost);
+
+  it('the members share one divider and are never shrunk on their own; the others fit around them', () => {
+    const [pa, pb] = ['probe-a', 'probe-b'].map((n) => a.outputs.find((o) => o.name === n)!);
+    expect(pa!.planning.plan!.dividerInteger).toBe(pb!.planning.plan!.dividerInteger);
+    expect([pa!.planning.shrunkFrom, pb!.planning.shrunkFrom]).toEqual([undefined, undefined]);
+    expect(a.diagnostics.filter((d) => d.code === 'fitted-to-budget' && (d.output === 'probe-a' || d.output === 'probe-b'))).toEqual([]);
+    // Table bytes = Σ N · 2 B, within the 2 KiB budget (derived): the other outputs shrank instead.
+    const bytes = a.outputs.reduce((t, o) => t + o.planning.plan!.tableLength * 2, 0);
+    expect(a.memory!.usedBytes).toBe(bytes);
+    expect(bytes).toBeLessThanOrEqual(2048);
+    expect(a.diagnostics.filter((d) => d.code === 'over-budget')).toEqual([]);
+    expect(a.outputs.filter((o) => o.planning.shrunkFrom).length).toBeGreaterThan(0);
+  });
+});
