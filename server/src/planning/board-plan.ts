@@ -16,6 +16,7 @@ import { describePlan } from './figures';
 import { type GroupPlanning, planPhaseGroup, planSharedClock } from './groups';
 import { ShrinkMenu } from './shrink';
 import type { Hardware, OutputPlanning, OutputRequest, Plan, PlanFigures } from './types';
+import { StepAccount, stepsPerOutput, withAccount } from './work';
 
 /** A group of a spec's outputs, by their indices in the spec's requests. */
 export interface GroupSpec {
@@ -32,11 +33,13 @@ export interface GroupSpec {
 export interface SpecBoard {
   requests: readonly OutputRequest[];
   groups: readonly GroupSpec[];
+  /** Search steps each output's own plan may take (work.ts; the checker shares a file's budget). */
+  stepsPerOutput?: number;
 }
 
 /** The planning steps, so callers can memoise each (the language server does; proofs need not). */
 export interface BoardSteps {
-  planAt(hw: Hardware, req: OutputRequest): OutputPlanning;
+  planAt(hw: Hardware, req: OutputRequest, steps: number): OutputPlanning;
   groupAt(hw: Hardware, group: GroupSpec, reqs: readonly OutputRequest[], base: readonly OutputPlanning[]): GroupPlanning;
   menuAt(hw: Hardware, req: OutputRequest, own: Plan): ShrinkMenu | null;
 }
@@ -66,7 +69,13 @@ export function newMenu(hw: Hardware, req: OutputRequest, own: Plan): ShrinkMenu
   return new ShrinkMenu(hw, req.targetHz, req.minSamplesPerCycle, pref, own, req.wholeSamplesPerCycle === true, dutyKept);
 }
 
-export const UNCACHED_STEPS: BoardSteps = { planAt: planOutputUncached, groupAt: planGroup, menuAt: newMenu };
+/** An output's own plan within `steps` search steps, as the checker's memo plans it (cache.ts). */
+export const planWithin = (hw: Hardware, req: OutputRequest, steps: number): OutputPlanning => withAccount(new StepAccount(steps), () => planOutputUncached(hw, req));
+
+export const UNCACHED_STEPS: BoardSteps = { planAt: planWithin, groupAt: planGroup, menuAt: newMenu };
+
+/** The steps each of the spec's outputs may take. */
+export const stepsOf = (spec: SpecBoard): number => spec.stepsPerOutput ?? stepsPerOutput(spec.requests.length);
 
 /** Per output: member of a group (its plan stays as the group planned it). */
 export function tiedOutputs(spec: SpecBoard): boolean[] {
@@ -146,7 +155,7 @@ export interface SpecPlanned {
 
 /** The spec planned at `hw` as the checker plans it. */
 export function planSpecAt(hw: Hardware, spec: SpecBoard, steps: BoardSteps = UNCACHED_STEPS): SpecPlanned {
-  const plannings = spec.requests.map((r) => steps.planAt(hw, r));
+  const plannings = spec.requests.map((r) => steps.planAt(hw, r, stepsOf(spec)));
   planGroupsAt(hw, spec, plannings, steps);
   const fit = fitSpec(hw, spec, plannings, steps.menuAt);
   return { plannings: fittedPlannings(hw, spec, plannings, fit), fit };

@@ -15,7 +15,7 @@
 // parts, each part bounded on its own), so nothing dropped could have made the list.
 
 import { type Rational, ZERO, cmp } from '../../../shared-schema/src/rational';
-import { type BoardSteps, type SpecBoard, UNCACHED_STEPS, fitSpec, fittedPlannings, planGroupInto, planSpecAt, shrinkable, sharingOutputs, tiedOutputs } from './board-plan';
+import { type BoardSteps, type SpecBoard, UNCACHED_STEPS, fitSpec, stepsOf, fittedPlannings, planGroupInto, planSpecAt, shrinkable, sharingOutputs, tiedOutputs } from './board-plan';
 import { type ReachableClock, reachableClocks } from './clock-source';
 import { exactTester, integerDividerSpan } from './exact-reach';
 import { type Part, type Score, actualPart, boundPart, compareScores, compareShare, partsFit, scoreOf, shrinkBound } from './joint-score';
@@ -208,7 +208,7 @@ function planClock(
     const spec = board.specs[s]!;
     const base = board.offsets[s]!;
     for (const k of u.members) {
-      plans[k] = steps.planAt(hwAt, board.request(k));
+      plans[k] = steps.planAt(hwAt, board.request(k), stepsOf(spec));
       result.plansMade++;
     }
     if (u.group !== null) {
