@@ -87,11 +87,13 @@ describe('a large file being planned', () => {
   it('drops a version replaced before its analysis is done, and plans the newest first', async () => {
     const { client, ws } = server;
     const uri = uriOf(path.join(ws.dir, 'replaced.wave.yaml'));
-    const text = bigSpec(2, 300);
+    // Large enough that its analysis cannot be done before the edit arrives, on any machine: at
+    // about 0.2 ms a plan, 1 500 outputs take hundreds of milliseconds; the edit follows 20 ms after.
+    const text = bigSpec(2, 1500);
     const mark = client.published.length;
     client.open(uri, text, 1);
     // Let its analysis start, then replace the text: one output's frequency changes.
-    await new Promise((r) => setTimeout(r, 100));
+    await new Promise((r) => setTimeout(r, 20));
     const line = text.split('\n').findIndex((l) => l.startsWith('    frequency:'));
     client.edit(uri, 2, { start: { line, character: 0 }, end: { line, character: text.split('\n')[line].length } }, '    frequency: 1 kHz');
     const published = await client.diagnosticsFor(uri, (p) => p.version === 2, mark);
