@@ -14,6 +14,9 @@ import {
 import { MAX_DIVIDER_INTEGER, MAX_FREQUENCY_HZ, MAX_TABLE_LENGTH } from './clock-schema';
 import { MIN_FREQUENCY_HZ } from './quantity';
 import { SHAPES } from './shape';
+
+/** Highest harmonic order a `harmonics:` list may name (the engine's MAX_HARMONIC_ORDER). */
+export const MAX_HARMONICS_ORDER = 2048;
 import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
 
 /** Output names become identifiers in exported firmware tables. */
@@ -102,6 +105,19 @@ export const outputSchema = z.strictObject({
     z.enum(['none', 'nyquist']),
     "Square, triangle and sawtooth: `nyquist` fills the table with only the shape's harmonics below each plan's f_s/2 (scaled to the amplitude), so none folds back between them and every cycle looks alike even when S is not whole; `none` samples the ideal shape.",
     'none',
+  ),
+  harmonics: optional(
+    z
+      .array(
+        z.strictObject({
+          order: z.number().int().min(1).max(MAX_HARMONICS_ORDER).describe(`h, the harmonic: 1 is the fundamental, a whole number up to ${MAX_HARMONICS_ORDER}.`),
+          amplitude: z.number().min(0).describe("Relative amplitude (any scale: the sum is scaled to the output's `amplitude`)."),
+          phase: z.number().min(-360).max(360).optional().describe("Phase in degrees of this harmonic's sine, amplitude·sin(2π·h·t/T + phase); 0 when absent."),
+        }),
+      )
+      .min(1)
+      .max(MAX_HARMONICS_ORDER),
+    "A waveform of our own: the table holds the sum of these sines (harmonics at or above each plan's f_s/2 are left out), scaled to `amplitude`. Written with `shape: sine`, whose defaults apply; each order once, e.g. `- { order: 3, amplitude: 0.1, phase: 90 }`.",
   ),
   'min-snr': optionalDerived(
     quantity({ kind: 'decibel', min: 0, max: 400 }),

@@ -20,7 +20,7 @@ import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, s
 import { defaultMaxSamplesPerCycle } from '../planning/ceiling';
 import type { CustomWave } from '../planning/custom-wave';
 import { pinnedProblems } from '../planning/pinned';
-import { bandLimitedWave } from '../signal/custom-tables';
+import { bandLimitedWave, harmonicsWave, MAX_HARMONIC_ORDER } from '../signal/custom-tables';
 import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
@@ -153,7 +153,7 @@ export function buildOutput(
     minSamplesPerCycle,
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
-    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty) },
+    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty), ...harmonics(entry, shape, (k) => valueRanges[k] ?? at('harmonics'), push) },
     toleranceHz: steps !== undefined ? steps[0]!.toleranceHz : toleranceHz(tolerance, targetHz),
     ...(steps !== undefined ? { steps } : {}),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
@@ -172,6 +172,31 @@ export function buildOutput(
 /** `band-limit: nyquist` on a square, triangle or sawtooth: the table of its harmonics below f_s/2. */
 function bandLimit(entry: OutputEntry, shape: OutputEntry['shape'], duty: number): { custom?: CustomWave } {
   return entry['band-limit'] === 'nyquist' && shape !== 'sine' ? { custom: bandLimitedWave(shape, duty, 'nyquist') } : {};
+}
+
+/** `harmonics:` with `shape: sine`: the table of the listed sines; a repeated order or another shape is named. */
+function harmonics(entry: OutputEntry, shape: OutputEntry['shape'], at: (key: string) => Range, push: (code: 'unused-key', range: Range, message: string) => void): { custom?: CustomWave } {
+  const list = entry.harmonics;
+  if (list === undefined) return {};
+  if (shape !== 'sine') {
+    push('unused-key', at('harmonics'), `harmonics defines the waveform with shape: sine; this output is a ${shape}: write shape: sine or remove harmonics.`);
+    return {};
+  }
+  const seen = new Set<number>();
+  for (let i = 0; i < list.length; i++) {
+    const h = list[i]!;
+    if (h.order > MAX_HARMONIC_ORDER) return {};
+    if (seen.has(h.order)) {
+      push('unused-key', at(`harmonics.${i}`), `Order ${h.order} is listed twice in harmonics: give each order once.`);
+      return {};
+    }
+    seen.add(h.order);
+  }
+  if (!list.some((h) => h.amplitude > 0)) {
+    push('unused-key', at('harmonics'), 'Every amplitude in harmonics is 0: give at least one a positive amplitude.');
+    return {};
+  }
+  return { custom: harmonicsWave(list.map((h) => ({ order: h.order, amplitude: h.amplitude, phaseDeg: h.phase ?? 0 }))) };
 }
 
 type Push = (code: 'pinned-plan', range: Range, message: string) => void;
