@@ -96,9 +96,18 @@ describe('language server over stdio', () => {
     const beacon = hints.find((h) => h.position.line === lineOf(labText, 'beacon:'))!;
     // derived by enumeration: the nearest jitter-free plan is 120 MHz / 13 × 2 / 499 = 240 000 000/6487 Hz
     // ≈ 36.9971 kHz, −79.2 ppm from 37 kHz.
-    expect(beacon.label).toBe('≈36.9971 kHz · -79.2 ppm · ÷13 · seam ok');
+    // Out of its 20 ppm tolerance: the label itself starts with the error mark, not only the squiggle's colour.
+    expect(beacon.label).toBe('✗ ≈36.9971 kHz · -79.2 ppm · ÷13 · seam ok');
     // The tooltip repeats the whole annotation, which the editor may truncate.
     expect(beacon.tooltip).toContain('≈36.9971 kHz · -79.2 ppm · ÷13 · seam ok');
+    // Every label's mark is its output's worst published finding (LSP DiagnosticSeverity: 1 error, 2 warning).
+    const published = await client.diagnosticsFor(labUri, (p) => p.version === 1);
+    for (const name of ['probe-drive', 'beacon', 'legacy-chirp']) {
+      const hint = hints.find((h) => h.position.line === lineOf(labText, `${name}:`))!;
+      const severities = published.diagnostics.filter((d) => (d.data as { output?: string } | undefined)?.output === name).map((d) => d.severity);
+      const want = severities.includes(1) ? '✗ ' : severities.includes(2) ? '⚠ ' : '';
+      expect(hint.label.startsWith('✗') || hint.label.startsWith('⚠') ? hint.label.slice(0, 2) : '', `${name}: "${hint.label}"`).toBe(want);
+    }
   });
 
   it('writes errors in the unit of ppm, ppb, ppt that puts a digit before the point (1 ppm = 1000 ppb = 10^6 ppt, SI)', async () => {

@@ -1,5 +1,8 @@
 // One compact line after each output's name: what the plan achieves, read off the analysis.
 // e.g. "≈99.998 kHz · -19.5 ppm · ÷3 · seam ok". No planning happens here.
+// The verdict shows in the text itself, not only in the colour of a squiggle: the label starts with
+// ERROR_MARK when the output has an error finding (out of tolerance, no plan, …) and with
+// WARNING_MARK when its worst finding is a warning; a clean output carries no mark.
 
 import { InlayHintKind, type InlayHint, type Range } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
@@ -10,6 +13,20 @@ import { compactHz, formatDivider, formatLsb, formatPpm, formatSeconds, signific
 import { clockShareHint } from './clock-views';
 import { stepsHint } from './divider-views';
 import { VERDICT_WORDS } from './plan-card';
+
+export const ERROR_MARK = '✗';
+export const WARNING_MARK = '⚠';
+
+/** The mark for an output's worst finding in this analysis, or '' when it has none. */
+export function verdictMark(analysis: Analysis, output: OutputAnalysis): string {
+  let mark = output.planning.plan === null || output.planning.verdict === 'out-of-tolerance' ? ERROR_MARK : '';
+  for (const d of analysis.diagnostics) {
+    if (d.output !== output.name || mark === ERROR_MARK) continue;
+    if (d.severity === 'error') mark = ERROR_MARK;
+    else if (d.severity === 'warning') mark = WARNING_MARK;
+  }
+  return mark;
+}
 
 export function hintText(plan: PlanFigures): string {
   const parts = [compactHz(plan.achievedHz), formatPpm(plan.errorPpm), formatDivider(plan)];
@@ -35,7 +52,9 @@ export function inlayHints(doc: TextDocument, analysis: Analysis, range: Range):
     const line = output.nameRange.end.line;
     if (line < range.start.line || line > range.end.line) continue;
     const plan = output.planning.plan;
-    const label = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) + stepsHint(output) : 'no plan';
+    const text = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) + stepsHint(output) : 'no plan';
+    const mark = verdictMark(analysis, output);
+    const label = mark ? `${mark} ${text}` : text;
     hints.push({
       position: anchor(doc, output),
       label,
