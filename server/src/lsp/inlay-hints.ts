@@ -14,18 +14,24 @@ import { clockShareHint } from './clock-views';
 import { stepsHint } from './divider-views';
 import { VERDICT_WORDS } from './plan-card';
 
-export const ERROR_MARK = '✗';
-export const WARNING_MARK = '⚠';
+const ERROR_MARK = '✗';
+const WARNING_MARK = '⚠';
 
-/** The mark for an output's worst finding in this analysis, or '' when it has none. */
-export function verdictMark(analysis: Analysis, output: OutputAnalysis): string {
-  let mark = output.planning.plan === null || output.planning.verdict === 'out-of-tolerance' ? ERROR_MARK : '';
+/** Each output's worst finding in this analysis (one pass over the diagnostics). */
+function worstFindings(analysis: Analysis): Map<string, 'error' | 'warning'> {
+  const worst = new Map<string, 'error' | 'warning'>();
   for (const d of analysis.diagnostics) {
-    if (d.output !== output.name || mark === ERROR_MARK) continue;
-    if (d.severity === 'error') mark = ERROR_MARK;
-    else if (d.severity === 'warning') mark = WARNING_MARK;
+    if (d.output === undefined || worst.get(d.output) === 'error') continue;
+    if (d.severity === 'error' || d.severity === 'warning') worst.set(d.output, d.severity);
   }
-  return mark;
+  return worst;
+}
+
+/** The mark for an output's worst finding, or '' when it has none. */
+function verdictMark(output: OutputAnalysis, worst: Map<string, 'error' | 'warning'>): string {
+  if (output.planning.plan === null || output.planning.verdict === 'out-of-tolerance') return ERROR_MARK;
+  const finding = worst.get(output.name);
+  return finding === 'error' ? ERROR_MARK : finding === 'warning' ? WARNING_MARK : '';
 }
 
 export function hintText(plan: PlanFigures): string {
@@ -48,12 +54,13 @@ function anchor(doc: TextDocument, output: OutputAnalysis): { line: number; char
 
 export function inlayHints(doc: TextDocument, analysis: Analysis, range: Range): InlayHint[] {
   const hints: InlayHint[] = [];
+  const worst = worstFindings(analysis);
   for (const output of analysis.outputs) {
     const line = output.nameRange.end.line;
     if (line < range.start.line || line > range.end.line) continue;
     const plan = output.planning.plan;
     const text = plan ? hintText(plan) + clockShareHint(output, analysis.hardware) + stepsHint(output) : 'no plan';
-    const mark = verdictMark(analysis, output);
+    const mark = verdictMark(output, worst);
     const label = mark ? `${mark} ${text}` : text;
     hints.push({
       position: anchor(doc, output),
