@@ -14,10 +14,13 @@ import {
 import { MAX_DIVIDER_INTEGER, MAX_FREQUENCY_HZ, MAX_TABLE_LENGTH } from './clock-schema';
 import { MIN_FREQUENCY_HZ } from './quantity';
 import { SHAPES } from './shape';
-
-/** Highest harmonic order a `harmonics:` list may name (the engine's MAX_HARMONIC_ORDER). */
-export const MAX_HARMONICS_ORDER = 2048;
 import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
+
+/**
+ * Harmonics a table holds at most (a `harmonics:` list, a band-limited shape), whatever its corner:
+ * each sample sums them all, and past this the square's next harmonic is below −66 dBc (4/(π·h)).
+ */
+export const MAX_HARMONIC_ORDER = 2048;
 
 /** Output names become identifiers in exported firmware tables. */
 export const OUTPUT_NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_-]{0,63}$/;
@@ -110,13 +113,13 @@ export const outputSchema = z.strictObject({
     z
       .array(
         z.strictObject({
-          order: z.number().int().min(1).max(MAX_HARMONICS_ORDER).describe(`h, the harmonic: 1 is the fundamental, a whole number up to ${MAX_HARMONICS_ORDER}.`),
+          order: z.number().int().min(1).max(MAX_HARMONIC_ORDER).describe(`h, the harmonic: 1 is the fundamental, a whole number up to ${MAX_HARMONIC_ORDER}.`),
           amplitude: z.number().min(0).describe("Relative amplitude (any scale: the sum is scaled to the output's `amplitude`)."),
           phase: z.number().min(-360).max(360).optional().describe("Phase in degrees of this harmonic's sine, amplitude·sin(2π·h·t/T + phase); 0 when absent."),
         }),
       )
       .min(1)
-      .max(MAX_HARMONICS_ORDER),
+      .max(MAX_HARMONIC_ORDER),
     "A waveform of our own: the table holds the sum of these sines (harmonics at or above each plan's f_s/2 are left out), scaled to `amplitude`. Written with `shape: sine`, whose defaults apply; each order once, e.g. `- { order: 3, amplitude: 0.1, phase: 90 }`.",
   ),
   'min-snr': optionalDerived(

@@ -4,13 +4,10 @@
 
 import type { CustomWave, FourierTerm } from '../planning/custom-wave';
 import type { Shape } from '../planning/types';
+import { MAX_HARMONIC_ORDER } from '../../../shared-schema/src/wave-schema';
 import { shapeTerms } from './ideal-shapes';
 
-/**
- * Harmonics a band-limited table holds at most, whatever its corner: each sample sums them all,
- * and past this the shape's next harmonic is below −66 dBc (square, 4/(π·h)).
- */
-export const MAX_HARMONIC_ORDER = 2048;
+export { MAX_HARMONIC_ORDER };
 
 /**
  * A square, triangle or sawtooth with only its harmonics below a corner: f_s/2 of each plan
