@@ -87,6 +87,11 @@ export const CODES = {
     title: 'Key has no effect',
     help: 'The key is valid but does nothing here (for example duty on a sine). Remove it, or change the shape it applies to.',
   },
+  'bad-harmonics': {
+    severity: 'error',
+    title: 'Harmonics list defines no waveform',
+    help: 'A `harmonics:` list names one order twice (which amplitude and phase would it have?) or gives every harmonic an amplitude of 0 (nothing to scale to the amplitude), so it defines no waveform and the output is not planned. Give each order once, and at least one a positive amplitude.',
+  },
   'clock-unreadable': {
     severity: 'error',
     title: 'Clock file cannot be read',

@@ -148,12 +148,14 @@ export function buildOutput(
     maxSamplesPerCycle = minSamplesPerCycle;
   }
 
+  const listed = harmonics(entry, shape, (i) => (i === undefined ? undefined : valueRange(doc, lines, ['outputs', name, 'harmonics', i])) ?? at('harmonics'), push);
+  if (listed === null) return { draft: null, diagnostics };
   const request: OutputRequest = {
     targetHz,
     minSamplesPerCycle,
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
-    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty), ...harmonics(entry, shape, (k) => valueRanges[k] ?? at('harmonics'), push) },
+    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty), ...listed },
     toleranceHz: steps !== undefined ? steps[0]!.toleranceHz : toleranceHz(tolerance, targetHz),
     ...(steps !== undefined ? { steps } : {}),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
@@ -174,12 +176,16 @@ function bandLimit(entry: OutputEntry, shape: OutputEntry['shape'], duty: number
   return entry['band-limit'] === 'nyquist' && shape !== 'sine' ? { custom: bandLimitedWave(shape, duty, 'nyquist') } : {};
 }
 
-/** `harmonics:` with `shape: sine`: the table of the listed sines; a repeated order or another shape is named. */
-function harmonics(entry: OutputEntry, shape: OutputEntry['shape'], at: (key: string) => Range, push: (code: 'unused-key', range: Range, message: string) => void): { custom?: CustomWave } {
+/**
+ * `harmonics:` with `shape: sine`: the table of the listed sines. Another shape is named (the
+ * list is not read); a list that defines no waveform (an order twice, every amplitude 0) is an
+ * error and null, so the output is not planned as something it does not ask for.
+ */
+function harmonics(entry: OutputEntry, shape: OutputEntry['shape'], at: (item?: number) => Range, push: (code: 'unused-key' | 'bad-harmonics', range: Range, message: string) => void): { custom?: CustomWave } | null {
   const list = entry.harmonics;
   if (list === undefined) return {};
   if (shape !== 'sine') {
-    push('unused-key', at('harmonics'), `harmonics defines the waveform with shape: sine; this output is a ${shape}: write shape: sine or remove harmonics.`);
+    push('unused-key', at(), `harmonics defines the waveform with shape: sine; this output is a ${shape}: write shape: sine or remove harmonics.`);
     return {};
   }
   const seen = new Set<number>();
@@ -187,14 +193,14 @@ function harmonics(entry: OutputEntry, shape: OutputEntry['shape'], at: (key: st
     const h = list[i]!;
     if (h.order > MAX_HARMONIC_ORDER) return {};
     if (seen.has(h.order)) {
-      push('unused-key', at(`harmonics.${i}`), `Order ${h.order} is listed twice in harmonics: give each order once.`);
-      return {};
+      push('bad-harmonics', at(i), `Order ${h.order} is listed twice in harmonics: give each order once.`);
+      return null;
     }
     seen.add(h.order);
   }
   if (!list.some((h) => h.amplitude > 0)) {
-    push('unused-key', at('harmonics'), 'Every amplitude in harmonics is 0: give at least one a positive amplitude.');
-    return {};
+    push('bad-harmonics', at(), 'Every amplitude in harmonics is 0: give at least one a positive amplitude.');
+    return null;
   }
   return { custom: harmonicsWave(list.map((h) => ({ order: h.order, amplitude: h.amplitude, phaseDeg: h.phase ?? 0 }))) };
 }

@@ -61,4 +61,30 @@ describe('harmonics: on an output', () => {
     expect(d.length, JSON.stringify(analysis.diagnostics)).toBeGreaterThan(0);
     expect(d.some((x) => x.range.start.line >= harmonicsLine)).toBe(true);
   });
+
+  it.each([
+    ['a repeated order', '    harmonics:\n      - { order: 1, amplitude: 1 }\n      - { order: 1, amplitude: 0.2 }\n', '      - { order: 1, amplitude: 0.2 }'],
+    ['every amplitude 0', '    harmonics: [{ order: 1, amplitude: 0 }, { order: 3, amplitude: 0 }]\n', '[{ order: 1, amplitude: 0 }, { order: 3, amplitude: 0 }]'],
+  ])('%s is bad-harmonics, an error on the list, and the output is not planned as a plain sine', (_name, extra, marked) => {
+    const { analysis, text } = run(extra);
+    const found = analysis.diagnostics.filter((d) => d.code === 'bad-harmonics');
+    expect(found).toHaveLength(1);
+    expect(found[0]!.severity).toBe('error');
+    expect(found[0]!.output).toBe('tone');
+    expect(analysis.diagnostics.some((d) => d.code === 'unused-key')).toBe(false);
+    // The range is the offending item (or the list), by its text.
+    const lines = text.split('\n');
+    const r = found[0]!.range;
+    const line = lines[r.start.line]!;
+    expect(marked).toContain(line.slice(r.start.character, r.end.character).trim());
+    expect(line.slice(r.start.character, r.end.character).length).toBeGreaterThan(10);
+    expect(analysis.outputs).toHaveLength(0);
+  });
+
+  it('harmonics on a square is still unused-key (the list is not read), not bad-harmonics', () => {
+    const text = wave('    harmonics:\n      - { order: 1, amplitude: 1 }\n').replace('shape: sine', 'shape: square');
+    const analysis = analyze('/w/r.wave.yaml', text, host(text));
+    expect(analysis.diagnostics.map((d) => d.code)).toContain('unused-key');
+    expect(analysis.diagnostics.map((d) => d.code)).not.toContain('bad-harmonics');
+  });
 });
