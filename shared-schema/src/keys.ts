@@ -37,7 +37,7 @@ export interface KeyInfo {
 
 export const schemaOf = (kind: FileKind): z.ZodType => (kind === 'clock' ? clockSchema : waveSchema);
 
-type Def = { type: string; innerType?: z.ZodType; shape?: Record<string, z.ZodType>; valueType?: z.ZodType; element?: z.ZodType; entries?: Record<string, string> };
+type Def = { type: string; innerType?: z.ZodType; shape?: Record<string, z.ZodType>; valueType?: z.ZodType; element?: z.ZodType; entries?: Record<string, string>; options?: z.ZodType[] };
 const defOf = (s: z.ZodType): Def => (s as unknown as { _zod: { def: Def } })._zod.def;
 
 function unwrap(s: z.ZodType): z.ZodType {
@@ -99,6 +99,13 @@ function describe(declared: z.ZodType, path: readonly (string | number)[], pathT
   } else if (def.type === 'enum' && def.entries) {
     info.type = 'choice';
     info.values = Object.values(def.entries);
+  } else if (def.type === 'union' && def.options?.some((o) => defOf(o).type === 'enum')) {
+    // Words or a quantity (`band-limit: nyquist` or `band-limit: 20 kHz`): a choice whose
+    // quantity the spec layer reads itself when the value is not one of the words.
+    info.type = 'choice';
+    info.values = def.options.flatMap((o) => Object.values(defOf(o).entries ?? {}));
+    const other = def.options.map((o) => quantityRegistry.get(o)).find((m) => m !== undefined);
+    if (other) info.quantity = { kind: other.kind, what: describeKind(other.kind), units: unitsOf(other.kind), plain: plainUnitOf(other.kind), bounds: other };
   } else if (def.type === 'boolean') {
     info.type = 'true/false';
     info.values = ['true', 'false'];

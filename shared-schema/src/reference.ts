@@ -32,8 +32,11 @@ function typeText(k: KeyInfo): string {
     case 'list':
       return k.items ? `list of ${typeText(k.items)}` : 'list';
     case 'choice':
-    case 'true/false':
-      return (k.values ?? []).map((v) => `\`${v}\``).join(' or ');
+    case 'true/false': {
+      const words = (k.values ?? []).map((v) => `\`${v}\``);
+      // A choice that also takes a quantity (`band-limit: 20 kHz`) names its units too.
+      return k.quantity ? `${words.join(', ')} or ${k.quantity.what.replace(/^an? /, '')}: ${k.quantity.units.join(', ')}` : words.join(' or ');
+    }
     default:
       return k.type;
   }

@@ -105,8 +105,8 @@ export const outputSchema = z.strictObject({
     DEFAULT_REASONS.wholeSamplesPerCycle,
   ),
   'band-limit': optional(
-    z.enum(['none', 'nyquist']),
-    "Square, triangle and sawtooth: `nyquist` fills the table with only the shape's harmonics below each plan's f_s/2 (scaled to the amplitude), so none folds back between them and every cycle looks alike even when S is not whole; `none` samples the ideal shape.",
+    z.union([z.enum(['none', 'nyquist']), quantity({ kind: 'frequency', min: MIN_FREQUENCY_HZ, max: MAX_FREQUENCY_HZ })]),
+    "Square, triangle and sawtooth: `nyquist` fills the table with only the shape's harmonics below each plan's f_s/2 (scaled to the amplitude), so none folds back between them and every cycle looks alike even when S is not whole; a frequency, e.g. `20 kHz`, is a filter corner: only the harmonics h·f_target below it (and below f_s/2), with the highest step's frequency on an output with steps; it must lie above that frequency. `none` samples the ideal shape.",
     'none',
   ),
   harmonics: optional(

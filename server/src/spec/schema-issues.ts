@@ -97,8 +97,10 @@ function wanted(info: KeyInfo | undefined): string {
       return `a number from ${info.min} to ${info.max}`;
     case 'true/false':
       return '`true` or `false`';
-    case 'choice':
-      return (info.values ?? []).map((v) => `\`${v}\``).join(', ');
+    case 'choice': {
+      const words = (info.values ?? []).map((v) => `\`${v}\``).join(', ');
+      return info.quantity ? `${words} or ${info.quantity.what} such as \`${quantityExample(info.quantity.kind)}\`` : words;
+    }
     case 'quantity':
       return info.quantity?.what ?? 'a quantity';
     default:
@@ -209,7 +211,11 @@ export function schemaDiagnostics(
     const value = valueAt(data, path);
     if (isPlaceholder(value)) {
       out.push(diagnostic(issue.code === 'invalid_value' ? 'bad-choice' : 'wrong-type', r, `${keyLabel(path)} still holds the placeholder \`${String(value).trim()}\`: write ${wanted(info)} in its place.`, output));
-    } else if (issue.code === 'invalid_value' && info?.type === 'choice') {
+    } else if (info?.type === 'choice' && info.quantity && typeof value === 'string' && /^\s*[+-]?\.?\d/.test(value)) {
+      // A choice that also takes a quantity (`band-limit: 20 kOhm`): what is wrong with the quantity.
+      const parsed = parseQuantity(info.quantity.kind, value);
+      out.push(parsed.ok ? diagnostic('wrong-type', r, `${keyLabel(path)} must be ${wanted(info)}.`, output) : diagnostic(parsed.code, r, parsed.message, output));
+    } else if (info?.type === 'choice' && (issue.code === 'invalid_value' || (info.quantity !== undefined && typeof value === 'string'))) {
       const hint = typeof value === 'string' ? didYouMean(value, info.values ?? []) : '';
       out.push(diagnostic('bad-choice', r, `${keyLabel(path)} must be one of ${wanted(info)}${hint}.`, output));
     } else if (issue.code === 'too_small' || issue.code === 'too_big') {

@@ -18,13 +18,12 @@ import { parseQuantity, toleranceHz } from '../../../shared-schema/src/quantity'
 import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-format';
 import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
 import { defaultMaxSamplesPerCycle } from '../planning/ceiling';
-import type { CustomWave } from '../planning/custom-wave';
 import { pinnedProblems } from '../planning/pinned';
-import { bandLimitedWave, harmonicsWave, MAX_HARMONIC_ORDER } from '../signal/custom-tables';
 import { splitDivider, stageProducts } from '../planning/stages';
 import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
 import { placeholderFor } from './schema-issues';
+import { customTable } from './custom-model';
 import { readSteps } from './steps-model';
 import { entryRange, keyRange, locate, valueRange } from './nodes';
 import type { Quantities } from './quantities';
@@ -148,14 +147,15 @@ export function buildOutput(
     maxSamplesPerCycle = minSamplesPerCycle;
   }
 
-  const listed = harmonics(entry, shape, (i) => (i === undefined ? undefined : valueRange(doc, lines, ['outputs', name, 'harmonics', i])) ?? at('harmonics'), push);
-  if (listed === null) return { draft: null, diagnostics };
+  const targetsHz = steps !== undefined ? steps.map((st) => st.targetHz) : [targetHz];
+  const custom = customTable({ name, entry, shape, duty, targetsHz, doc, lines, at, push });
+  if (custom === null) return { draft: null, diagnostics };
   const request: OutputRequest = {
     targetHz,
     minSamplesPerCycle,
     ...(maxSamplesPerCycle !== null ? { maxSamplesPerCycle } : {}),
     ...(shape === 'square' ? { duty: { asked: dutyExact, tolerance: dutyTolerance } } : {}),
-    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...bandLimit(entry, shape, duty), ...listed },
+    waveform: { shape, duty, dutyExact, amplitudeVpp: toNumber(amplitude), offsetV: toNumber(offset), exact: { amplitudeVpp: amplitude, offsetV: offset }, ...custom },
     toleranceHz: steps !== undefined ? steps[0]!.toleranceHz : toleranceHz(tolerance, targetHz),
     ...(steps !== undefined ? { steps } : {}),
     jitter: entry.jitter ?? (DEFAULT_JITTER as 'forbid'),
@@ -169,40 +169,6 @@ export function buildOutput(
   const entryR = entryRange(doc, lines, ['outputs', name]) ?? nameRange;
   const toleranceText = get('tolerance')?.text ?? DEFAULT_TOLERANCE;
   return { draft: { name, nameRange, entryRange: entryR, valueRanges, targetHz, toleranceText, request }, diagnostics };
-}
-
-/** `band-limit: nyquist` on a square, triangle or sawtooth: the table of its harmonics below f_s/2. */
-function bandLimit(entry: OutputEntry, shape: OutputEntry['shape'], duty: number): { custom?: CustomWave } {
-  return entry['band-limit'] === 'nyquist' && shape !== 'sine' ? { custom: bandLimitedWave(shape, duty, 'nyquist') } : {};
-}
-
-/**
- * `harmonics:` with `shape: sine`: the table of the listed sines. Another shape is named (the
- * list is not read); a list that defines no waveform (an order twice, every amplitude 0) is an
- * error and null, so the output is not planned as something it does not ask for.
- */
-function harmonics(entry: OutputEntry, shape: OutputEntry['shape'], at: (item?: number) => Range, push: (code: 'unused-key' | 'bad-harmonics', range: Range, message: string) => void): { custom?: CustomWave } | null {
-  const list = entry.harmonics;
-  if (list === undefined) return {};
-  if (shape !== 'sine') {
-    push('unused-key', at(), `harmonics defines the waveform with shape: sine; this output is a ${shape}: write shape: sine or remove harmonics.`);
-    return {};
-  }
-  const seen = new Set<number>();
-  for (let i = 0; i < list.length; i++) {
-    const h = list[i]!;
-    if (h.order > MAX_HARMONIC_ORDER) return {};
-    if (seen.has(h.order)) {
-      push('bad-harmonics', at(i), `Order ${h.order} is listed twice in harmonics: give each order once.`);
-      return null;
-    }
-    seen.add(h.order);
-  }
-  if (!list.some((h) => h.amplitude > 0)) {
-    push('bad-harmonics', at(), 'Every amplitude in harmonics is 0: give at least one a positive amplitude.');
-    return null;
-  }
-  return { custom: harmonicsWave(list.map((h) => ({ order: h.order, amplitude: h.amplitude, phaseDeg: h.phase ?? 0 }))) };
 }
 
 type Push = (code: 'pinned-plan', range: Range, message: string) => void;
