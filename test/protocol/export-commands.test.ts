@@ -114,6 +114,55 @@ describe('code lens', () => {
   });
 });
 
+describe('code lens when the export would refuse', () => {
+  // The lens and waveplan.exportC read one decision (server/src/export/refusal.ts): what the
+  // command refuses, the lens names instead of offering it.
+  it('names the error count and the first finding on a spec with errors, and runs nothing', async () => {
+    const uri = uriOf(file('lab.wave.yaml'));
+    const published = await client.diagnosticsFor(uri);
+    const errors = published.diagnostics.filter((d) => d.severity === 1);
+    expect(errors.length).toBeGreaterThan(0);
+    const got = await lenses(uri);
+    const first = errors.sort((a, b) => a.range.start.line - b.range.start.line || a.range.start.character - b.range.start.character)[0];
+    expect(got[0].command?.command).toBe('');
+    expect(got[0].command?.title).toMatch(/^C export blocked: \d+ errors? — first: line \d+, [a-z-]+$/);
+    const [, count, line, code] = /blocked: (\d+) errors? — first: line (\d+), ([a-z-]+)$/.exec(got[0].command!.title)!;
+    expect(Number(count)).toBe(errors.length);
+    // The command's refusal names the same first finding (path:line:col: error code …).
+    const answer = await command<{ error: string }>('waveplan.exportC', uri);
+    expect(answer.error).toContain(`lab.wave.yaml:${line}:`);
+    expect(answer.error).toContain(` error ${code} `);
+    expect(got[1].command).toEqual({ title: 'Open plan report', command: 'waveplan.openReport', arguments: [uri] });
+  });
+
+  it('turns back into the export action once the edit clears the errors, and blocked again when one returns', async () => {
+    const uri = uriOf(file('tone-lab.wave.yaml'));
+    const good = read('tone-lab.wave.yaml');
+    const broken = good.replace(/frequency: 93\.75 kHz/, 'frequency: 93.75 parsecs');
+    expect(broken).not.toBe(good);
+    client.change(uri, 50, broken);
+    await client.diagnosticsFor(uri, (p) => p.version === 50);
+    expect((await lenses(uri))[0].command).toMatchObject({ command: '', title: expect.stringMatching(/^C export blocked: 1 error — first: line \d+, /) });
+    client.change(uri, 51, good);
+    await client.diagnosticsFor(uri, (p) => p.version === 51);
+    expect((await lenses(uri))[0].command).toEqual({ title: expect.stringMatching(/^Export C to /), command: 'waveplan.exportCForFile', arguments: [uri] });
+  });
+
+  it('names the unreadable clock file as the first finding when `clock:` leads nowhere', async () => {
+    const uri = uriOf(file('orphan.wave.yaml'));
+    client.open(uri, 'clock: ./missing.clock.yaml\noutputs:\n  tone:\n    frequency: 1 kHz\n');
+    const published = await client.diagnosticsFor(uri);
+    // Two errors: the clock file cannot be read (line 1) and the output has no shape (line 3).
+    expect(published.diagnostics.filter((d) => d.severity === 1).map((d) => [d.range.start.line, d.code]).sort()).toEqual([
+      [0, 'clock-unreadable'],
+      [2, 'missing-key'],
+    ]);
+    const got = await lenses(uri);
+    expect(got[0].command).toEqual({ title: 'C export blocked: 2 errors — first: line 1, clock-unreadable', command: '' });
+    client.close(uri);
+  });
+});
+
 describe('waveplan.exportC', () => {
   it('writes the header and C file into the configured folder, byte for byte what `waveplan export --c` writes', async () => {
     client.settings = { export: { directory: 'firmware/waves' } };

@@ -7,36 +7,15 @@ import { CliInputError, nodeFileSystem, writeOutputs } from '../cli/disk';
 import type { WriteTarget } from '../spec/containment';
 import type { SpecDiagnostic } from '../spec/types';
 import { EXPORT_USAGE, parseExportArgs } from './args';
-import { cFiles, sampleType } from './c-export';
-import { outputIdentifiers, specPrefix } from './identifiers';
+import { cFiles } from './c-export';
+import { specPrefix } from './identifiers';
 import { exportJson, type ExportedSpec } from './json-export';
 import { diagnosticLine, loadSpecs, type LoadedSpec } from './load';
 import { exportModel } from './model';
+import { exportProblems } from './refusal';
 import { folderClashes, type GeneratedHeader } from './symbols';
 import { relativeTo } from '../cli/check';
 import { guarded, processIo, type CommandIo } from './io';
-
-export function exportProblems(spec: LoadedSpec, wantC: boolean): { ids: ExportedSpec['ids']; problems: SpecDiagnostic[] } {
-  const problems: SpecDiagnostic[] = [];
-  const hw = spec.analysis.hardware;
-  if (hw && sampleType(hw.dac.sampleBytes) === null)
-    problems.push({
-      range: spec.analysis.outputs[0]?.nameRange ?? { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
-      severity: 'error',
-      code: 'sample-width',
-      message: `The clock's sample-bytes is ${hw.dac.sampleBytes}; exported tables hold 1, 2 or 4 bytes per sample (uint8_t, uint16_t, uint32_t).`,
-    });
-  if (hw && hw.dac.bits > 8 * hw.dac.sampleBytes)
-    problems.push({
-      range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
-      severity: 'error',
-      code: 'sample-width',
-      message: `A ${hw.dac.bits}-bit code does not fit ${hw.dac.sampleBytes} byte(s) per sample; raise sample-bytes in the clock file.`,
-    });
-  if (!wantC) return { ids: null, problems };
-  const { ids, diagnostics } = outputIdentifiers(spec.file, spec.analysis.outputs);
-  return { ids, problems: problems.concat(diagnostics) };
-}
 
 export async function runExport(argv: string[], io: CommandIo = processIo()): Promise<number> {
   return guarded('export', EXPORT_USAGE, io, () => {

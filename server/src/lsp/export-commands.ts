@@ -9,8 +9,8 @@ import { cFiles } from '../export/c-export';
 import { reportHtml } from '../export/html-report';
 import { describeSpec, diagnosticLine, type LoadedSpec } from '../export/load';
 import { exportModel } from '../export/model';
+import { exportDecision, refusalWords } from '../export/refusal';
 import { folderClashes } from '../export/symbols';
-import { exportProblems } from '../export/run-export';
 import { analyze } from '../spec/analyze';
 import type { FileFacts } from '../spec/containment';
 import type { SpecHost } from '../spec/types';
@@ -85,10 +85,6 @@ function inputFacts(paths: ReadonlyArray<string | null>): FileFacts[] {
   });
 }
 
-function plural(n: number, word: string): string {
-  return `${n} ${word}${n === 1 ? '' : 's'}`;
-}
-
 /**
  * Writes <prefix>.h and <prefix>.c into `directory` (relative to the spec's folder), or nothing
  * at all when the spec has errors or its outputs cannot become C: the editor has no --force.
@@ -98,20 +94,16 @@ export function exportC(argument: unknown, directory: string, files: EditorFiles
   if (typeof file !== 'string') return file;
   const spec = loadFromEditor(file, files, folders);
   if ('error' in spec) return spec;
-  const { ids, problems } = exportProblems(spec, true);
-  const findings = [...spec.errors, ...problems];
-  if (findings.length > 0) {
-    return {
-      error: `nothing exported: ${spec.path} has ${plural(findings.length, 'error')}; fix them first. First: ${diagnosticLine(spec, findings[0])}`,
-    };
-  }
-  const model = exportModel(spec);
-  if (!model) return { error: `nothing exported: no hardware could be read from the clock file of ${spec.path}` };
+  const decision = exportDecision(spec);
+  if (decision.kind === 'no-hardware') return { error: `nothing exported: no hardware could be read from the clock file of ${spec.path}` };
+  if (decision.kind === 'findings')
+    return { error: `nothing exported: ${spec.path} has ${refusalWords(decision)}; fix them first. First: ${diagnosticLine(spec, decision.findings[0])}` };
+  const model = exportModel(spec)!;
   // The folder comes from settings a repository can carry: it must stay inside the workspace
   // folder that holds the spec (with no folder open, inside the spec's own folder).
   const target = path.resolve(path.dirname(file), directory);
   const workspace = folders.find((f) => f === baseFolder(file, folders)) ?? path.dirname(file);
-  const writes = cFiles(spec, model, ids!, false).map((f) => ({ file: path.join(target, f.name), folder: target, text: f.text }));
+  const writes = cFiles(spec, model, decision.ids, false).map((f) => ({ file: path.join(target, f.name), folder: target, text: f.text }));
   const headers = writes.filter((w) => w.file.endsWith('.h')).map((w) => ({ name: path.basename(w.file), spec: spec.path, text: w.text }));
   const clashes = folderClashes(nodeFileSystem, target, headers);
   if (clashes.length > 0) return { error: `nothing exported: ${clashes.join('; ')}` };

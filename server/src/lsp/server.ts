@@ -215,7 +215,7 @@ export function startServer(): void {
     guard(log, 'code lens', [], async (params) => {
       const at = snapshot(params.textDocument.uri);
       if (!at) return [];
-      return codeLenses(at.doc, syntaxOf(at.analysis), (await settings.get(at.doc.uri)).exportDirectory);
+      return codeLenses(at.doc, syntaxOf(at.analysis), at.analysis, (await settings.get(at.doc.uri)).exportDirectory);
     }),
   );
 
