@@ -65,4 +65,26 @@ describe('settings over the protocol', () => {
     expect((await hints()).length).toBe(3);
     expect((await hover()).contents.value).toContain('data:image/svg+xml;base64,');
   });
+
+  it('adds each output’s SFDR to its annotation when waveplan.annotations.sfdr asks, the figure the hover states', async () => {
+    client.settings = { annotations: { sfdr: true } };
+    client.notify('workspace/didChangeConfiguration', { settings: null });
+    const got = await client.request<{ label: string; tooltip: string; position: { line: number } }[]>('textDocument/inlayHint', {
+      textDocument: { uri },
+      range: { start: { line: 0, character: 0 }, end: { line: 99, character: 0 } },
+    });
+    expect(got.length).toBe(3);
+    for (const hint of got) {
+      const sfdr = /SFDR (-?\d+\.\d dB|unbounded)/.exec(hint.tooltip)?.[1];
+      expect(sfdr, hint.tooltip).toBeDefined();
+      const card = (
+        await client.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri }, position: { line: hint.position.line, character: 4 } })
+      ).contents.value;
+      expect(card).toContain(`SFDR ${sfdr}`);
+    }
+    client.settings = {};
+    client.notify('workspace/didChangeConfiguration', { settings: null });
+    const plain = await hints();
+    expect(plain.map((h) => h.label).join('\n')).not.toContain('SFDR');
+  });
 });

@@ -186,8 +186,9 @@ export function startServer(): void {
   connection.languages.inlayHint.on(
     guard(log, 'inlay hints', [], async (params) => {
       const at = snapshot(params.textDocument.uri);
-      if (!at || !(await settings.get(at.doc.uri)).annotationsEnabled) return [];
-      return inlayHints(at.doc, at.analysis, params.range);
+      if (!at) return [];
+      const { annotationsEnabled, annotationsSfdr } = await settings.get(at.doc.uri);
+      return annotationsEnabled ? inlayHints(at.doc, at.analysis, params.range, { sfdr: annotationsSfdr }) : [];
     }),
   );
 

@@ -24,6 +24,12 @@ export const SETTINGS = {
     default: true,
     description: "Show each output's achieved frequency, error, divider, jitter and seam inline after its name.",
   },
+  'waveplan.annotations.sfdr': {
+    type: 'boolean',
+    default: false,
+    description:
+      "Add each output's spurious-free dynamic range (SFDR, from the spectrum of the signal its plan emits) to its annotation. Each output shown costs a transform the first time.",
+  },
   'waveplan.hover.pictures': {
     type: 'boolean',
     default: true,
@@ -44,6 +50,7 @@ export const SETTINGS = {
 
 export interface Settings {
   annotationsEnabled: boolean;
+  annotationsSfdr: boolean;
   hoverPictures: boolean;
   exportDirectory: string;
   traceServer: 'off' | 'messages' | 'verbose';
@@ -51,6 +58,7 @@ export interface Settings {
 
 export const DEFAULT_SETTINGS: Settings = {
   annotationsEnabled: SETTINGS['waveplan.annotations.enabled'].default,
+  annotationsSfdr: SETTINGS['waveplan.annotations.sfdr'].default,
   hoverPictures: SETTINGS['waveplan.hover.pictures'].default,
   exportDirectory: SETTINGS['waveplan.export.directory'].default,
   traceServer: SETTINGS['waveplan.trace.server'].default,
@@ -79,6 +87,7 @@ export function toSettings(section: unknown): Settings {
   const trace = str('waveplan.trace.server', DEFAULT_SETTINGS.traceServer);
   return {
     annotationsEnabled: bool('waveplan.annotations.enabled', DEFAULT_SETTINGS.annotationsEnabled),
+    annotationsSfdr: bool('waveplan.annotations.sfdr', DEFAULT_SETTINGS.annotationsSfdr),
     hoverPictures: bool('waveplan.hover.pictures', DEFAULT_SETTINGS.hoverPictures),
     exportDirectory: str('waveplan.export.directory', DEFAULT_SETTINGS.exportDirectory),
     traceServer: trace === 'messages' || trace === 'verbose' ? trace : 'off',
