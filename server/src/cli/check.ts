@@ -61,7 +61,7 @@ export function runCheck(argv: readonly string[], io: CliIo, tool: ToolInfo): nu
     // Every file the run read is an input: the checked specs and the clock files they name.
     writeOutputs([{ file: outputPath, folder: path.dirname(outputPath), text: report }], { inputs: host.inputs(), force: options.force, anchor: io.cwd, show: relative });
     // CI logs still show the outcome when the report goes to a file.
-    io.stdout(`${summaryLine(counts)} (report in ${options.output})\n`);
+    io.stdout(`${summaryLine(counts, checked)} (report in ${options.output})\n`);
   }
   return counts.errors > 0 ? 1 : 0;
 }

@@ -40,6 +40,9 @@ describe('a wave spec on an invalid clock file', () => {
     const header = text.split('\n')[0];
     expect(header).toBe('spec.wave.yaml  wave spec — outputs not planned: the clock file broken.clock.yaml has errors, clock /virtual/broken.clock.yaml');
     expect(header).not.toContain('0 outputs');
+    // The run's last line too: no bare "0 outputs" as if the spec had none.
+    const summary = text.trimEnd().split('\n').at(-1);
+    expect(summary).toBe('waveplan check FAILED: 1 file, 0 outputs planned (1 wave spec not planned: see its clock file), 1 error, 0 warnings');
   });
 
   it('and as cannot be read when the clock file is missing', () => {
