@@ -140,7 +140,7 @@ export async function editorChecks({ checks, page, url, shots, state }) {
     return `${first.name}: "${text}"`;
   }, { needs: [DIAG] });
 
-  await checks.run('hover: a picture of the waveform renders', async () => {
+  await checks.run('hover: the summary and the waveform picture open the card, every picture renders', async () => {
     const name = expected.outputs.find((o) => o.plan)?.name ?? '';
     const token = lineWith(page, `${name}:`).locator('span > span', { hasText: name }).first();
     const hover = page.locator('.monaco-hover:not(.hidden)').first();
@@ -152,11 +152,24 @@ export async function editorChecks({ checks, page, url, shots, state }) {
       const done = imgs.every((i) => i.complete && i.naturalWidth > 0);
       return done ? imgs.map((i) => `${i.naturalWidth}×${i.naturalHeight}`) : null;
     }), 'every hover image to load');
+    // The card opens with its one-line summary and the waveform picture: the picture's top edge
+    // lies within the hover's first 250 px, before any table (measured in the rendered hover).
+    const firstTop = await hover.evaluate((box) => {
+      const img = box.querySelector('img');
+      return img ? img.getBoundingClientRect().top - box.getBoundingClientRect().top : Infinity;
+    });
+    expect(firstTop <= 250, `the first picture starts ${firstTop} px into the hover`);
+    const beforeTable = await hover.evaluate((box) => {
+      const img = box.querySelector('img');
+      const table = box.querySelector('table');
+      return !!img && (!table || !!(img.compareDocumentPosition(table) & Node.DOCUMENT_POSITION_FOLLOWING));
+    });
+    expect(beforeTable, 'the first picture comes before the plan table');
     // The hover scrolls inside itself; bring the first picture into view for the screenshot.
     await hover.locator('img').first().scrollIntoViewIfNeeded();
     await shoot(page, shots, 'hover', 'hover.png');
     await page.keyboard.press('Escape');
-    return `${sizes.length} image(s): ${sizes.join(', ')}`;
+    return `${sizes.length} image(s): ${sizes.join(', ')}; the first ${Math.round(firstTop)} px into the hover`;
   }, { needs: [DIAG] });
 
   // Out of tolerance is the headline error; a pinned plan's finding is the other kind of fix.

@@ -139,6 +139,20 @@ describe('language server over stdio', () => {
     }
   });
 
+  it('opens the card with a one-line summary and the waveform picture, before any table', async () => {
+    const line = lineOf(labText, 'probe-drive:');
+    const md = (await client.request<Hover>('textDocument/hover', { textDocument: { uri: labUri }, position: { line, character: 4 } })).contents.value;
+    const blocks = md.split('\n\n');
+    // The summary is the annotation's own text (every part, as its tooltip carries it).
+    const hints = await client.request<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri: labUri }, range: { start: { line, character: 0 }, end: { line, character: 999 } } });
+    const tooltip = hints[0].tooltip as string;
+    const summary = tooltip.slice(tooltip.indexOf(' — ') + 3).replace(/^[✗⚠] /, '');
+    expect(blocks[0]).not.toContain('\n');
+    expect(blocks[0]).toBe(`**probe-drive** — ${tooltip.slice('probe-drive: '.length, tooltip.indexOf(' — '))}: ${summary}`);
+    expect(blocks[1]).toMatch(/^!\[probe-drive: the sample staircase[^\]]*\]\(data:image\/svg\+xml;base64,/);
+    expect(blocks[2].startsWith('|')).toBe(true);
+  });
+
   it('says a quantity in other units and documents a key from the schema', async () => {
     const clockText = fs.readFileSync(ws.labClock, 'utf8');
     const clockUri = uriOf(ws.labClock);

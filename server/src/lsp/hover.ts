@@ -9,7 +9,8 @@ import { clockBudgetLine } from './clock-views';
 import { systemClockHover } from './clock-hover';
 import { floorOf, signalRows } from '../cli/signal-rows';
 import { QUICK_SPECTRUM } from '../signal/output-signal';
-import { memoryLine, outputCard, table } from './plan-card';
+import { cardBody, cardHeading, memoryLine, table } from './plan-card';
+import { hintText } from './inlay-hints';
 import { outputPictures, withPictures } from './pictures';
 import { quantityViews } from './quantity-views';
 import type { NodeAtCursor, SyntaxTree } from './yaml-path';
@@ -29,19 +30,27 @@ function keyDoc(info: KeyInfo): string {
   return lines.join('\n');
 }
 
+/**
+ * An output's card: the heading with the one-line summary, then its first picture (the waveform),
+ * so both show within the hover's first ~250 px; then the plan table, the signal figures, and the
+ * other pictures.
+ */
 function outputHover(analysis: Analysis, name: string, pictures: boolean): string | undefined {
   const output = analysis.outputs.find((o) => o.name === name);
   if (!output) return undefined;
-  let text = outputCard(output);
   const hw = analysis.hardware;
   const plan = output.planning.plan;
+  const heading = cardHeading(output, plan ? hintText(plan) : undefined);
+  let text = cardBody(output);
   // The signal figures and the spectrum are computed on the first hover of a plan (memoised with it).
   if (hw && plan) text += `\n\n${table(signalRows(hw, output.request, plan, floorOf(output, hw), QUICK_SPECTRUM))}`;
   const budget = clockBudgetLine(output, analysis.hardware);
   if (budget) text += `\n\n${budget}`;
   const memory = memoryLine(analysis);
   if (memory) text += `\n\n${memory}`;
-  return pictures && hw ? withPictures(text, outputPictures(output, hw.dac, hw), HOVER_LIMIT) : text;
+  if (!pictures || !hw) return `${heading}\n\n${text}`;
+  const [first, ...rest] = outputPictures(output, hw.dac, hw);
+  return withPictures(`${heading}\n\n${first ? `${first.markdown}\n\n` : ''}${text}`, rest, HOVER_LIMIT);
 }
 
 function valueHover(analysis: Analysis, at: NodeAtCursor): string | undefined {

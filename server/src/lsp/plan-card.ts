@@ -58,9 +58,22 @@ export function table(rows: string[][]): string {
   return ['| | |', '|---|---|', ...rows.map(([k, v]) => `| ${cell(k)} | ${cell(v)} |`)].join('\n');
 }
 
+/**
+ * The card's first line: name, verdict and, when given, the one-line summary the annotation
+ * carries (so the hover opens with the answer before any table).
+ */
+export function cardHeading(output: OutputAnalysis, summary?: string): string {
+  return `**${output.name}** — ${VERDICT_WORDS[output.planning.verdict]}${summary ? `: ${summary}` : ''}`;
+}
+
 export function outputCard(output: OutputAnalysis): string {
+  return `${cardHeading(output)}\n\n${cardBody(output)}`;
+}
+
+/** The plan table and what follows it, without the heading. */
+export function cardBody(output: OutputAnalysis): string {
   const { planning } = output;
-  const lines = [`**${output.name}** — ${VERDICT_WORDS[planning.verdict]}`, ''];
+  const lines: string[] = [];
   if (planning.plan) lines.push(table(planRows(planning.plan, output.targetHz)));
   else lines.push(`No plan: target ${formatHz(output.targetHz)}; see the diagnostics for what blocks it.`);
   const alt = planning.nearestJitterFree;
