@@ -9,6 +9,7 @@ import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { describe, expect, it } from 'vitest';
+import { BREAKS, breaksIn, insertedBreakProblems, withBreaks } from '../support/line-breaks';
 import { ROOT, uriOf, type LspDiagnostic } from '../support/lsp-client';
 import { serverOnScratch } from './workspace';
 
@@ -24,18 +25,6 @@ interface Action {
 }
 
 const server = serverOnScratch();
-
-const BREAKS = { lf: '\n', crlf: '\r\n', cr: '\r' } as const;
-type Variant = keyof typeof BREAKS | 'mixed';
-
-function withBreaks(lfText: string, variant: Variant): string {
-  const lines = lfText.split('\n');
-  if (variant !== 'mixed') return lines.join(BREAKS[variant]);
-  // A lone CR is always followed by a line that ends in CR LF, so it never pairs with an LF.
-  return lines.map((l, i) => (i < lines.length - 1 ? l + ['\r\n', '\n', '\r'][i % 3] : l)).join('');
-}
-
-const breaksIn = (text: string): string[] => text.match(/\r\n|\r|\n/g) ?? [];
 
 /** Text under a range, read by the oracle library. */
 const textAt = (doc: TextDocument, r: Range): string => doc.getText(r);
@@ -145,9 +134,7 @@ describe('every line ending', () => {
           if (edits.some((e) => breaksIn(e.newText).length > 0)) inserted++;
           if (variant === 'mixed') {
             // Each inserted break is the one that ends the line it is inserted on.
-            for (const e of edits) {
-              for (const b of breaksIn(e.newText)) expect(b, action.title).toBe(breaksIn(doc.getText({ start: e.range.start, end: { line: e.range.start.line + 1, character: 0 } }))[0]);
-            }
+            expect(insertedBreakProblems(doc, edits), action.title).toStrictEqual([]);
           } else {
             expect(new Set(breaksIn(after)), `${variant}: ${action.title}`).toStrictEqual(new Set([BREAKS[variant]]));
           }
