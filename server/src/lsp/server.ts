@@ -223,7 +223,9 @@ export function startServer(): void {
   connection.onCompletion(
     guard(log, 'completion', [], (params) => {
       const doc = docs.get(params.textDocument.uri);
-      return doc ? completions(doc, params.position) : [];
+      // A position past a line's end or the last line is taken where the text ends, so every
+      // item's edit range lies inside the document (the client's position may be stale).
+      return doc ? completions(doc, doc.positionAt(doc.offsetAt(params.position))) : [];
     }),
   );
 
