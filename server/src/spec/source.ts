@@ -30,8 +30,10 @@ export class LineIndex {
     const next = p.line + 1 < this.starts.length ? this.starts[p.line + 1] : this.text.length;
     return Math.min(start + Math.max(0, p.character), next);
   }
+  /** Position of an offset; one between the CR and the LF of a CR LF pair is the line's end. */
   position(offset: number): Position {
-    const o = Math.max(0, Math.min(offset, this.text.length));
+    let o = Math.max(0, Math.min(offset, this.text.length));
+    if (o > 0 && this.text.charCodeAt(o - 1) === 13 && this.text.charCodeAt(o) === 10) o--;
     let lo = 0;
     let hi = this.starts.length - 1;
     while (lo < hi) {
