@@ -5,16 +5,16 @@
 import type { Position, TextEdit } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
 import { isMap, isScalar, type Document, type Node } from 'yaml';
+import { lineBreakAt } from '../spec/line-breaks';
 import type { OutputAnalysis } from '../spec/types';
 
 function lineText(doc: TextDocument, line: number): string {
   return doc.getText({ start: { line, character: 0 }, end: { line: line + 1, character: 0 } }).replace(/(?:\r\n|\r|\n)$/, '');
 }
 
-/** The file's own line break, so an added line keeps CRLF or CR files as they are. */
-export function lineBreak(doc: TextDocument): string {
-  const m = /\r\n|\r|\n/.exec(doc.getText());
-  return m ? m[0] : '\n';
+/** The break ending `line` (else the line before's, else the file's own): mixed files keep each line's own. */
+export function lineBreak(doc: TextDocument, line: number): string {
+  return lineBreakAt(doc.getText(), line);
 }
 
 /** Replaces the written value of `key` with `text`; undefined when the entry has no such key. */
@@ -40,7 +40,7 @@ export function addKey(doc: TextDocument, output: OutputAnalysis, key: string, v
   if (last.character === 0 && last.line > first.line) last = { line: last.line - 1, character: 0 };
   const indent = /^\s*/.exec(lineText(doc, first.line))?.[0] ?? '  ';
   const end = { line: last.line, character: lineText(doc, last.line).length };
-  return { range: { start: end, end }, newText: `${lineBreak(doc)}${indent}${key}: ${value}` };
+  return { range: { start: end, end }, newText: `${lineBreak(doc, end.line)}${indent}${key}: ${value}` };
 }
 
 /** Sets `key` to `value`: in place when written, added to the entry otherwise. */
@@ -86,5 +86,5 @@ export function addToMapping(doc: TextDocument, tree: Document, path: readonly (
   const lastEnd = ((last.value as Node | null)?.range ?? (last.key as Node).range!)[1];
   const indent = ' '.repeat(doc.positionAt(first[0]).character);
   const end = lastLineEnd(doc, first[0], lastEnd);
-  return { range: { start: end, end }, newText: `${lineBreak(doc)}${indent}${key}: ${value}` };
+  return { range: { start: end, end }, newText: `${lineBreak(doc, end.line)}${indent}${key}: ${value}` };
 }
