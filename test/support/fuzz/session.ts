@@ -1,0 +1,192 @@
+// One language-server session on a fuzzed spec: opened, then edited with ranged changes (now and
+// then a whole-text change), with hover, inlay hints, code actions, symbols, completion and code
+// lenses asked in between, some cancelled at once. At the end: the final version's diagnostics
+// equal the checker's on the saved file, and every quick fix offered is applied and checked.
+
+import * as fs from 'node:fs';
+import * as path from 'node:path';
+import { TextDocument } from 'vscode-languageserver-textdocument';
+import { DiskHost } from '../../../server/src/cli/disk';
+import { analyze } from '../../../server/src/spec/analyze';
+import { CancellationTokenSource, uriOf, type LspClient, type LspDiagnostic } from '../lsp-client';
+import { diagnosticProblems, linesOf } from '../ranges';
+import { compareFindings, findingOf, runChecker, saveBuffer } from './checker-side';
+import type { FuzzConfig } from './config';
+import { rangedEdit } from './edits';
+import { checkFix } from './fix-check';
+import { mutate, mutateMildly } from './mutations';
+import { between, caseRandom, chance, int, pick, type Random } from './random';
+import { answerProblems } from './responses';
+import type { Tally } from './tally';
+import type { FuzzCase } from './cases';
+
+const METHODS = ['textDocument/hover', 'textDocument/inlayHint', 'textDocument/codeAction', 'textDocument/documentSymbol', 'textDocument/completion', 'textDocument/codeLens'] as const;
+const SEVERITY: Record<number, string> = { 1: 'error', 2: 'warning', 3: 'information' };
+/** Diagnostics of one session whose quick fixes are asked for and applied. */
+const MAX_FIXED_DIAGNOSTICS = 60;
+/** RequestCancelled (LSP 3.17, "Cancellation Support"). */
+const REQUEST_CANCELLED = -32800;
+
+interface Action {
+  title: string;
+  edit?: { changes?: Record<string, { range: LspDiagnostic['range']; newText: string }[]> };
+}
+
+/** A position in the text, mostly on a line and within it, sometimes past the end of either. */
+function somewhere(r: Random, text: string): { line: number; character: number } {
+  const lines = linesOf(text);
+  if (chance(r, 0.05)) return { line: lines.length + int(r, 3), character: int(r, 5) };
+  const line = int(r, lines.length);
+  return { line, character: chance(r, 0.05) ? lines[line].length + 1 + int(r, 3) : int(r, lines[line].length + 1) };
+}
+
+function paramsFor(method: (typeof METHODS)[number], r: Random, uri: string, text: string, diagnostics: LspDiagnostic[]): unknown {
+  const textDocument = { uri };
+  const lines = linesOf(text).length;
+  switch (method) {
+    case 'textDocument/hover':
+    case 'textDocument/completion':
+      return { textDocument, position: somewhere(r, text) };
+    case 'textDocument/inlayHint':
+      return { textDocument, range: chance(r, 0.5) ? { start: { line: 0, character: 0 }, end: { line: lines, character: 0 } } : { start: somewhere(r, text), end: { line: lines + 1, character: 0 } } };
+    case 'textDocument/codeAction': {
+      // Diagnostics of an older version, as an editor sends them while the new ones are on their way.
+      // Every draw is made whatever arrived, so a replay takes the same path (the diagnostics do not).
+      const useOne = chance(r, 0.8);
+      const which = r();
+      const elsewhere = { start: somewhere(r, text), end: somewhere(r, text) };
+      const d = useOne && diagnostics.length ? diagnostics[Math.floor(which * diagnostics.length)] : undefined;
+      const range = d?.range ?? elsewhere;
+      return { textDocument, range, context: { diagnostics: d ? [d] : [] } };
+    }
+    default:
+      return { textDocument };
+  }
+}
+
+export interface SessionResult {
+  problems: string[];
+  edits: number;
+  fixes: number;
+}
+
+export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzCase, root: string, tally: Tally): Promise<SessionResult> {
+  const r = caseRandom(config.seed, c.n, 1);
+  const problems: string[] = [];
+  const file = path.join(c.seed.folder, `fuzz-session-${c.n}.${c.seed.kind}.yaml`);
+  const uri = uriOf(file);
+  const logsBefore = client.logs.length;
+  let doc = TextDocument.create(uri, 'yaml', 1, c.text);
+  client.open(uri, c.text, 1);
+  const pending: Promise<void>[] = [];
+  let lastDiagnostics: LspDiagnostic[] = [];
+
+  const ask = (method: (typeof METHODS)[number]) => {
+    const text = doc.getText();
+    const version = doc.version;
+    const params = paramsFor(method, r, uri, text, lastDiagnostics);
+    const cancel = chance(r, 0.15) ? new CancellationTokenSource() : undefined;
+    const started = performance.now();
+    const answer = client.request<unknown>(method, params, cancel);
+    if (cancel) {
+      if (chance(r, 0.5)) cancel.cancel();
+      else setImmediate(() => cancel.cancel());
+    }
+    pending.push(
+      answer.then(
+        (value) => {
+          tally.request(`${method} (case ${c.n}, ${text.length} chars)`, performance.now() - started);
+          problems.push(...answerProblems(method, value, text, uri).map((p) => `v${version}: ${p}`));
+        },
+        (error: { code?: number; message?: string }) => {
+          if (cancel && error?.code === REQUEST_CANCELLED) return tally.count('cancelled');
+          problems.push(`v${version}: ${method} answered an error: ${error?.code} ${error?.message}`);
+        },
+      ),
+    );
+  };
+
+  for (let e = 0; e < config.edits; e++) {
+    const next = mutate(doc.getText(), r, 1).text;
+    const version = doc.version + 1;
+    if (chance(r, 0.1)) {
+      client.change(uri, version, next);
+      doc = TextDocument.update(doc, [{ text: next }], version);
+    } else {
+      const edit = rangedEdit(doc, next);
+      client.edit(uri, version, edit.range, edit.text);
+      doc = TextDocument.update(doc, [{ range: edit.range, text: edit.text }], version);
+      if (doc.getText() !== next) problems.push(`the harness's own ranged edit went wrong at v${version}`);
+    }
+    for (let k = between(r, 0, 3); k > 0; k--) ask(pick(r, METHODS));
+    const published = client.published.filter((p) => p.uri === uri).at(-1);
+    if (published) lastDiagnostics = published.diagnostics;
+    if (chance(r, 0.3)) await Promise.all(pending.splice(0));
+  }
+  // Most sessions end back on their seed with one mild change, so the final check and the quick
+  // fixes meet plans and not only broken YAML.
+  if (chance(r, 0.7)) {
+    const version = doc.version + 1;
+    const edit = rangedEdit(doc, mutateMildly(c.seed.text, r).text);
+    client.edit(uri, version, edit.range, edit.text);
+    doc = TextDocument.update(doc, [{ range: edit.range, text: edit.text }], version);
+    for (let k = between(r, 1, 3); k > 0; k--) ask(pick(r, METHODS));
+  }
+  await Promise.all(pending.splice(0));
+  const text = doc.getText();
+  const final = await client.diagnosticsFor(uri, (p) => p.version === doc.version).catch((e: Error) => {
+    problems.push(`no diagnostics for the final version ${doc.version}: ${e.message.slice(0, 300)}`);
+    return undefined;
+  });
+  let fixes = 0;
+  if (final) {
+    problems.push(...diagnosticProblems(final.diagnostics, text).map((p) => `final diagnostics: ${p}`));
+    // The checker on the same text saved to disk.
+    saveBuffer(file, text);
+    const checked = runChecker([file], root);
+    problems.push(...checked.problems);
+    const editor = final.diagnostics.map((d) => findingOf({ severity: SEVERITY[d.severity ?? 1] as 'error', code: String(d.code), message: d.message, range: d.range }));
+    if (checked.files[0]) problems.push(...compareFindings('the editor', editor, 'the checker', checked.files[0].findings));
+    fixes = await applyFixes(client, doc, final.diagnostics, file, root, tally, problems);
+  }
+  client.close(uri);
+  // FUZZ_DUMP=<folder> keeps the final text of a failing session for a closer look.
+  if (problems.length && process.env.FUZZ_DUMP) {
+    fs.mkdirSync(process.env.FUZZ_DUMP, { recursive: true });
+    fs.writeFileSync(path.join(process.env.FUZZ_DUMP, path.basename(file)), text);
+  }
+  const failed = client.logs.slice(logsBefore).filter((m) => /failed/.test(m));
+  problems.push(...failed.map((m) => `server log: ${m.slice(0, 400)}`));
+  if (!client.alive) problems.push(`the server exited: ${client.serverStderr.slice(-500)}`);
+  return { problems, edits: config.edits, fixes };
+}
+
+/** Asks for the quick fixes of every diagnostic and applies each to the text (test/support/fuzz/fix-check.ts). */
+async function applyFixes(client: LspClient, doc: TextDocument, diagnostics: LspDiagnostic[], file: string, root: string, tally: Tally, problems: string[]): Promise<number> {
+  const text = doc.getText();
+  const before = analyze(file, text, new DiskHost([root]));
+  let applied = 0;
+  // A file of thousands of copied outputs repeats its findings: the first ones stand for the rest.
+  if (diagnostics.length > MAX_FIXED_DIAGNOSTICS) tally.count('diagnostics not asked for fixes', diagnostics.length - MAX_FIXED_DIAGNOSTICS);
+  for (const d of diagnostics.slice(0, MAX_FIXED_DIAGNOSTICS)) {
+    const started = performance.now();
+    let actions: Action[];
+    try {
+      actions = await client.request<Action[]>('textDocument/codeAction', { textDocument: { uri: doc.uri }, range: d.range, context: { diagnostics: [d], only: ['quickfix'] } });
+    } catch (e) {
+      problems.push(`quick fixes for ${d.code}: answered an error: ${(e as Error).message}`);
+      continue;
+    }
+    tally.request(`textDocument/codeAction quick fixes (${text.length} chars)`, performance.now() - started);
+    problems.push(...answerProblems('textDocument/codeAction', actions, text, doc.uri).map((p) => `final: ${p}`));
+    for (const action of actions) {
+      const edits = action.edit?.changes?.[doc.uri];
+      if (!edits?.length) continue;
+      applied++;
+      const output = (d.data as { output?: string } | undefined)?.output;
+      problems.push(...checkFix(doc, { title: action.title, edits }, { code: String(d.code), output }, before, file, root));
+    }
+  }
+  tally.count('quick fixes applied', applied);
+  return applied;
+}
