@@ -60,6 +60,7 @@ export const CITATION_FORMS: Form[] = [
   { pattern: /\bCircuit Cellar,? (?:issue )?#?(\d+)/g, key: (m) => `Circuit Cellar #${m[1]}` },
   { pattern: /\bJSON Schema \d{4}-\d\d\b/g, key: whole },
   { pattern: /\bYAML 1\.\d\b/g, key: whole },
+  { pattern: /\bWCAG \d\.\d\b/g, key: whole },
   { pattern: /\bIMTC \d{4}\b/g, key: whole },
   { pattern: /\bIEC \d{4,5}(?:-\d+)?/g, key: whole },
   { pattern: /\bISO(?:\/IEC)? \d{3,5}(?:-\d+)?/g, key: whole },

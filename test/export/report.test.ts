@@ -3,27 +3,22 @@
 // the network; a screenshot goes to docs/report.png.
 import * as fs from 'node:fs';
 import * as path from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO, FIXTURES, REPO, run, scratch } from './support';
+import { DEMO, FIXTURES, REPO, launchChromium, run, scratch } from './support';
 
-const CHROMIUM = '/usr/bin/chromium';
 let browser: Browser;
 let html: string;
 let file: string;
 let code: number;
 
 beforeAll(async () => {
-  if (!fs.existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: apt-get install -y chromium (CI installs it)`);
   const dir = scratch('report');
   file = path.join(dir, 'report.html');
   const r = await run('report', [DEMO, path.join(FIXTURES, 'tone-lab.wave.yaml'), '--html', file]);
   code = r.code;
   html = fs.readFileSync(file, 'utf8');
-  browser = await chromium.launch({
-    executablePath: CHROMIUM,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
+  browser = await launchChromium();
 }, 60_000);
 
 afterAll(async () => {
@@ -80,7 +75,9 @@ describe('the report page', () => {
   }, 60_000);
 
   it('shows the same figures as the checker for an exact plan (96 MHz ÷ 8 / 128 = 93.75 kHz, derived)', () => {
-    const row = /<tr><td><a href="#s1-pilot">pilot<\/a><\/td><td><span class="badge exact">exact<\/span><\/td>(.*?)<\/tr>/.exec(html)?.[1] ?? '';
-    expect(row).toContain('<td>93.75 kHz</td><td>93.75 kHz</td><td>0 Hz (0 ppm)</td><td>÷8</td><td>12 MHz</td><td>128 × 1</td>');
+    const row = /<tr><td data-label="output"><a href="#s1-pilot">pilot<\/a><\/td><td data-label="verdict"><span class="badge exact">exact<\/span><\/td>(.*?)<\/tr>/.exec(html)?.[1] ?? '';
+    expect(row).toContain(
+      '<td data-label="target">93.75 kHz</td><td data-label="achieved">93.75 kHz</td><td data-label="error">0 Hz (0 ppm)</td><td data-label="divider">÷8</td><td data-label="f_s">12 MHz</td><td data-label="N × M">128 × 1</td>',
+    );
   });
 });

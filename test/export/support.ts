@@ -7,6 +7,7 @@ import * as fs from 'node:fs';
 import * as os from 'node:os';
 import * as path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { chromium, type Browser } from 'playwright-core';
 import { runExport, runReport } from '../../server/src/export';
 
 export const REPO = fileURLToPath(new URL('../..', import.meta.url)).replace(/[\/]$/, '');
@@ -65,3 +66,14 @@ export function runBinary(file: string): string {
 
 /** The warnings-as-errors flags every generated file must pass (task brief). */
 export const STRICT = ['-Wall', '-Wextra', '-Werror', '-pedantic'];
+
+const CHROMIUM = '/usr/bin/chromium';
+
+/** Debian's Chromium, headless, with the flags of test/e2e/README.md; missing, it fails the test with the command that installs it. */
+export async function launchChromium(): Promise<Browser> {
+  if (!fs.existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: apt-get install -y chromium (CI installs it)`);
+  return chromium.launch({
+    executablePath: CHROMIUM,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  });
+}

@@ -20,6 +20,9 @@ function sourceText(hw: Hardware): string {
   return `crystal ${formatHz(p.crystalHz)} through a PLL: R ${p.referenceDivider.min}…${p.referenceDivider.max}, N ${p.feedbackMultiplier.min}…${p.feedbackMultiplier.max}, VCO ${formatHz(p.vcoHz.min)}…${formatHz(p.vcoHz.max)}${inUse}`;
 }
 
+/** The ranked clocks' columns; each cell repeats its column's name (data-label) for the stacked narrow layout. */
+const CANDIDATE_COLUMNS = ['system clock', 'exact', 'within tolerance', 'worst error', 'tables'];
+
 /** The section, or '' for a clock file with nothing but `system-clock`. */
 export function clockTreeSection(a: Analysis): string {
   const hw = a.hardware;
@@ -46,11 +49,11 @@ export function clockTreeSection(a: Analysis): string {
         worst === null ? 'no plan' : formatPpm(worst).replace(/^\+/, ''),
         formatBytes(c.score.bytes),
       ];
-      return `<tr>${cells.map((t) => `<td>${esc(t)}</td>`).join('')}</tr>`;
+      return `<tr>${cells.map((t, k) => `<td data-label="${esc(CANDIDATE_COLUMNS[k]!)}">${esc(t)}</td>`).join('')}</tr>`;
     });
     parts.push(
       `<p class="meta">The best system clocks for these outputs, of ${result.reachable} the tree reaches:</p>`,
-      `<div class="scroll"><table class="plans"><thead><tr>${['system clock', 'exact', 'within tolerance', 'worst error', 'tables'].map((h) => `<th>${h}</th>`).join('')}</tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
+      `<div class="scroll"><table class="plans"><thead><tr>${CANDIDATE_COLUMNS.map((h) => `<th>${h}</th>`).join('')}</tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
     );
   }
   return parts.join('\n');

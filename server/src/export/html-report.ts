@@ -49,6 +49,9 @@ function badge(verdict: string): string {
   return `<span class="badge ${esc(verdict)}">${esc(verdict)}</span>`;
 }
 
+/** The plans table's columns; each cell repeats its column's name (data-label) for the stacked narrow layout. */
+const PLAN_COLUMNS = ['output', 'verdict', 'target', 'achieved', 'error', 'divider', 'f_s', 'N × M', 'TIE', 'seam', 'bytes'];
+
 function planRow(i: number, o: OutputAnalysis): string {
   const p = o.planning.plan;
   const cells = p
@@ -64,7 +67,8 @@ function planRow(i: number, o: OutputAnalysis): string {
         formatBytes(p.tableBytes),
       ]
     : [formatHz(o.targetHz), '—', '—', '—', '—', '—', '—', '—', '—'];
-  return `<tr><td><a href="#${anchor(i, o)}">${esc(o.name)}</a></td><td>${badge(o.planning.verdict)}</td>${cells.map((c) => `<td>${esc(c)}</td>`).join('')}</tr>`;
+  const tds = [`<a href="#${anchor(i, o)}">${esc(o.name)}</a>`, badge(o.planning.verdict), ...cells.map(esc)];
+  return `<tr>${tds.map((td, k) => `<td data-label="${esc(PLAN_COLUMNS[k]!)}">${td}</td>`).join('')}</tr>`;
 }
 
 function outputArticle(i: number, o: OutputAnalysis, hw: Hardware | null): string {
@@ -131,7 +135,7 @@ function specSection(i: number, spec: LoadedSpec): string {
     '<h3>Plans</h3>',
     a.outputs.length === 0
       ? `<p class="none">${esc(clockProblem(a) ? `No outputs planned: ${clockProblem(a)}.` : 'No outputs.')}</p>`
-      : `<div class="scroll"><table class="plans"><thead><tr>${['output', 'verdict', 'target', 'achieved', 'error', 'divider', 'f_s', 'N × M', 'TIE', 'seam', 'bytes'].map((h) => `<th>${h}</th>`).join('')}</tr></thead><tbody>${a.outputs.map((o) => planRow(i, o)).join('')}</tbody></table></div>`,
+      : `<div class="scroll"><table class="plans"><thead><tr>${PLAN_COLUMNS.map((h) => `<th>${h}</th>`).join('')}</tr></thead><tbody>${a.outputs.map((o) => planRow(i, o)).join('')}</tbody></table></div>`,
     '<h3>Findings</h3>',
     findings(spec),
     ...a.outputs.map((o) => outputArticle(i, o, hw)),
