@@ -107,3 +107,32 @@ describe('quality-floor and chain quick fixes', () => {
     expect(after.codes).not.toContain('chain-clipping');
   });
 });
+
+describe('the coupling capacitor', () => {
+  // An invented AC-coupled rig: 1 µF into 10 kΩ, corner 1/(2π·10 kΩ·1 µF) = 15.9 Hz, under a 50 Hz tone.
+  // derived: the loss within 0.1 dB needs f_c ≤ f·√(10^(0.1/10) − 1) = 50 Hz · 0.15262 = 7.631 Hz, so
+  // C ≥ 1/(2π·10 kΩ·7.631 Hz) = 2.086 µF; the first E12 value above (IEC 60063) is 2.2 µF, whose
+  // corner is 7.234 Hz and whose loss at 50 Hz is 20·log10(50/√(50² + 7.234²)) = −0.090 dB.
+  const COUPLED = CLOCK.replace(/analog:[\s\S]*$/, 'analog:\n  coupling: { resistance: 10 kΩ, capacitance: 1 µF }\n');
+
+  it('50 Hz through 1 µF into 10 kΩ: "Use a 2.2 µF coupling capacitor" edits the clock file, and the re-check clears coupling-corner', async () => {
+    fs.writeFileSync(path.join(dir, 'coupled.clock.yaml'), COUPLED);
+    const wave = 'clock: ./coupled.clock.yaml\noutputs:\n  hum:\n    shape: sine\n    frequency: 50 Hz\n';
+    const { actions } = await fixes('hum.wave.yaml', wave, 'coupling-corner');
+    const larger = actions.find((a) => a.title.startsWith('Use a '));
+    expect(larger, JSON.stringify(actions.map((a) => a.title))).toBeDefined();
+    expect(larger!.title).toBe('Use a 2.2 µF coupling capacitor (corner 7.234 Hz): hum loses 0.090 dB at 50 Hz');
+    expect(larger!.isPreferred).toBe(true);
+    const clockUri = uriOf(path.join(dir, 'coupled.clock.yaml'));
+    expect(Object.keys(larger!.edit.changes)).toEqual([clockUri]);
+    // Applied as the editor applies a WorkspaceEdit: the clock file's buffer changes; the spec is re-checked.
+    const edited = applyEdits(COUPLED, larger!.edit.changes[clockUri]!);
+    expect(edited).toBe(COUPLED.replace('capacitance: 1 µF', 'capacitance: 2.2 µF'));
+    const waveUri = uriOf(path.join(dir, 'hum.wave.yaml'));
+    const since = client.published.length;
+    client.open(clockUri, edited, 1);
+    const after = await client.diagnosticsFor(waveUri, () => true, since);
+    expect(after.diagnostics.map((d) => d.code)).not.toContain('coupling-corner');
+    client.close(clockUri);
+  });
+});

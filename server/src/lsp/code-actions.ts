@@ -19,6 +19,7 @@ import { jitterFreeNeighbours } from './retarget';
 import { SCHEMA_FIX_CODES, schemaFixes } from './schema-fixes';
 import { signalFixes } from './signal-fixes';
 import { checkCancelled } from './safe';
+import { couplingActions } from './coupling-fix';
 import { retuneActions } from './retune';
 
 const PREFIXES: ReadonlyArray<[string, bigint]> = [
@@ -198,7 +199,7 @@ export function codeActions(doc: TextDocument, analysis: Analysis, diagnostics: 
       continue;
     }
     if (!hw || analysis.kind !== 'wave') continue;
-    if (context.readFile) actions.push(...retuneActions(analysis, d, context.readFile));
+    if (context.readFile) actions.push(...retuneActions(analysis, d, context.readFile), ...couplingActions(analysis, d, context.readFile));
     if (d.code === 'over-budget' || d.code === 'fitted-to-budget') {
       actions.push(...budgetFixes(doc, analysis, d, token, recheck));
       continue;

@@ -3,27 +3,17 @@
 // title what happens to this spec's outputs — exact and within tolerance, before → after.
 
 import { CodeActionKind, type CodeAction, type Diagnostic } from 'vscode-languageserver/node';
-import { TextDocument } from 'vscode-languageserver-textdocument';
-import { parseDocument, isScalar } from 'yaml';
 import { cmp, isExactDecimal } from '../../../shared-schema/src/rational';
 import { aboveRated, clockCandidatesOf, countsOf, countsOfAnalysis } from '../spec/clock-candidates';
 import type { Analysis } from '../spec/types';
 import { formatHz } from '../cli/units';
+import { clockValueRange } from './clock-edits';
 import { pathToUri } from './documents';
 import { frequencyText } from './code-actions';
 import { overclockCaution, settingText } from './clock-candidates-view';
 
 /** Codes whose cure may be another system clock. */
 export const RETUNE_CODES = new Set(['out-of-tolerance', 'over-budget', 'fractional-plan']);
-
-/** Range of `system-clock`'s value in the clock file's text, or undefined. */
-function systemClockRange(text: string) {
-  const doc = parseDocument(text, { keepSourceTokens: true });
-  const node = doc.get('system-clock', true);
-  if (!isScalar(node) || !node.range) return undefined;
-  const td = TextDocument.create('file:///clock', 'yaml', 0, text);
-  return { start: td.positionAt(node.range[0]), end: td.positionAt(node.range[1]) };
-}
 
 /** Up to two retunes that bring more outputs within tolerance, or as many and more exact. */
 export function retuneActions(analysis: Analysis, d: Diagnostic, readClock: (path: string) => string | undefined): CodeAction[] {
@@ -39,7 +29,7 @@ export function retuneActions(analysis: Analysis, d: Diagnostic, readClock: (pat
   });
   if (better.length === 0) return [];
   const text = readClock(analysis.clockPath);
-  const range = text === undefined ? undefined : systemClockRange(text);
+  const range = text === undefined ? undefined : clockValueRange(text, ['system-clock'])?.range;
   if (!range) return [];
   const uri = pathToUri(analysis.clockPath);
   return better.slice(0, 2).map((c) => {

@@ -29,6 +29,9 @@ export function qualityFloor(hw: Hardware, minSnrDb: number | undefined, minSfdr
   return { snrDb: minSnrDb ?? fallback, sfdrDb: minSfdrDb ?? fallback, snrGiven: minSnrDb !== undefined, sfdrGiven: minSfdrDb !== undefined };
 }
 
+/** The most the AC coupling's high-pass may cost an output's fundamental before coupling-corner (common practice). */
+export const COUPLING_LOSS_LIMIT_DB = 0.1;
+
 const dB = (x: number): string => `${x.toFixed(1)} dB`;
 
 function causeText(cause: QualityCause, draft: OutputDraft, plan: PlanFigures, hw: Hardware): string {
@@ -108,7 +111,7 @@ function chainDiagnostics(draft: OutputDraft, plan: PlanFigures, hw: Hardware, p
   if (f.amplifierLossDb !== null && f.amplifierLossDb < -0.1) {
     push('amplifier-bandwidth', at, `The amplifier's closed-loop bandwidth (${hz(f.closedLoopBandwidthHz!)} = gain-bandwidth / gain) costs the fundamental ${f.amplifierLossDb.toFixed(2)} dB at ${hz(fOut)}${w.shape !== 'sine' ? ` and passes ${f.harmonicsPassed} of its harmonics` : ''}: use a lower gain or a wider amplifier.`);
   }
-  if (f.couplingLossDb !== null && f.couplingLossDb < -0.1) {
+  if (f.couplingLossDb !== null && f.couplingLossDb < -COUPLING_LOSS_LIMIT_DB) {
     push('coupling-corner', at, `The AC coupling's corner ${hz(f.highPassCornerHz!)} (1/(2πRC)) costs the fundamental ${f.couplingLossDb.toFixed(2)} dB at ${hz(fOut)}: use a larger coupling capacitor.`);
   }
   if (f.tiltExact !== null && f.tiltApprox !== null) {
