@@ -16,6 +16,11 @@ export function forYaml(text: string): string {
 /** Offsets where lines start (0 first), counting CR LF, lone CR and LF each as one break. */
 export function lineStarts(text: string): number[] {
   const starts = [0];
+  // LF-only text (the common case): indexOf finds the breaks without reading each character.
+  if (text.indexOf('\r') === -1) {
+    for (let i = text.indexOf('\n'); i !== -1; i = text.indexOf('\n', i + 1)) starts.push(i + 1);
+    return starts;
+  }
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (c === LF || (c === CR && text.charCodeAt(i + 1) !== LF)) starts.push(i + 1);

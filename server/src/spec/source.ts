@@ -75,6 +75,12 @@ export interface Source {
 
 /** Deepest [ / { nesting outside quotes and comments, and where it first passes the limit. */
 export function flowDepthBreach(text: string): number | undefined {
+  // Most specs hold a few flow collections or none: fewer openers than the limit cannot breach
+  // it, and counting them with indexOf is far cheaper than reading every character.
+  let openers = 0;
+  for (const opener of ['[', '{'])
+    for (let i = text.indexOf(opener); i !== -1 && openers <= MAX_DEPTH; i = text.indexOf(opener, i + 1)) openers++;
+  if (openers <= MAX_DEPTH) return undefined;
   let depth = 0;
   let quote = '';
   let comment = false;
