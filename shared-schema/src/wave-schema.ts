@@ -122,6 +122,10 @@ export const outputSchema = z.strictObject({
       .max(MAX_HARMONIC_ORDER),
     "A waveform of our own: the table holds the sum of these sines (harmonics at or above each plan's f_s/2 are left out), scaled to `amplitude`. Written with `shape: sine`, whose defaults apply; each order once, e.g. `- { order: 3, amplitude: 0.1, phase: 90 }`.",
   ),
+  'sample-file': optional(
+    z.string().min(1),
+    "A waveform of our own from a file: one cycle of values, one a line or in CSV columns (the last column is the value; # comments, blank lines and a header line are skipped), scaled so the cycle spans `amplitude`. The path is relative to this file and must stay inside the workspace folder (at most 3 MiB). Written with `shape: sine`, whose defaults apply but one: `max-samples-per-cycle` is the file's number of values K, so a plan with S = K, which plays the file sample for sample, is preferred; at any other S the table is the cycle resampled by linear interpolation. The wrap from the last value back to the first is checked like any table's seam. E.g. `./pulse.csv`.",
+  ),
   'min-snr': optionalDerived(
     quantity({ kind: 'decibel', min: 0, max: 400 }),
     "Signal-quality floor: the least SNR the output's stream may have, e.g. `70 dB`. Below it a warning names the cause (divider jitter, the table, quantisation) and a plan or change that would meet it.",

@@ -15,6 +15,7 @@ import { Memo } from './memo';
 import { planEntry } from './output-plan';
 import { readQuantities } from './quantities';
 import { validate } from './schema-issues';
+import { readReferenced, resolveSampleFile, type SampleSource } from './sample-file';
 import { type Source, WAVE_OUTPUTS, diagnostic, readSource } from './source';
 import { documentTree, setSyntax } from './syntax';
 import type { Analysis, Range, SpecDiagnostic, SpecHost } from './types';
@@ -98,6 +99,7 @@ function* analyzeWave(analysis: Analysis, host: SpecHost, split: boolean): Gener
   const steps: WaveSteps = {
     maxOutputs: MAX_OUTPUTS,
     resolveClock: (a, clock, range) => resolveClock(a, clock, range, host),
+    resolveSamples: (a, written) => resolveSamples(a, written, host),
     overBudget,
   };
   if (split && (yield* splitReading(analysis, steps))) return;
@@ -141,7 +143,8 @@ function* analyzeWaveWhole(analysis: Analysis, host: SpecHost): Generator<Progre
     const entry = (data.outputs as Record<string, unknown> | undefined)?.[name];
     const blocked = diagnostics.some((d) => d.output === name && d.severity === 'error' && d.code !== 'duplicate-output');
     if (blocked || !outputSchema.safeParse(entry).success) continue;
-    const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines, steps);
+    const samples = resolveSamples(analysis, (entry as OutputEntry)['sample-file'], host);
+    const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines, steps, samples);
     diagnostics.push(...planned.diagnostics);
     if (planned.output) analysis.outputs.push(planned.output);
     usedBytes += planned.tableBytes;
@@ -176,20 +179,13 @@ function resolveClock(analysis: Analysis, clock: unknown, range: Range, host: Sp
   if (typeof clock !== 'string' || clock.length === 0) return null;
   const clockPath = nodePath.resolve(nodePath.dirname(analysis.path), clock);
   analysis.clockPath = clockPath;
-  let text: string | undefined;
-  let why: string | undefined;
-  try {
-    text = host.readFile(clockPath);
-    if (text === undefined) why = host.whyUnreadable?.(clockPath);
-  } catch {
-    text = undefined;
-  }
-  if (text === undefined) {
-    const reason = why ?? `no such file (looked for ${clockPath}); check the path, which is relative to this file`;
+  const got = readReferenced(host, clockPath);
+  if (!('text' in got)) {
+    const reason = got.why ?? `no such file (looked for ${clockPath}); check the path, which is relative to this file`;
     analysis.diagnostics.push(diagnostic('clock-unreadable', range, `Cannot read the clock file ${clock}: ${reason}.`));
     return null;
   }
-  const read = clocks.get(text, readClock);
+  const read = clocks.get(got.text, readClock);
   const errors = read.diagnostics.filter((d) => d.severity === 'error');
   if (errors.length > 0 || !read.hardware) {
     // The first error in file order: the one a reader meets first when opening the clock file.
@@ -200,4 +196,13 @@ function resolveClock(analysis: Analysis, clock: unknown, range: Range, host: Sp
     return null;
   }
   return read.hardware;
+}
+
+/** Reads the sample file an output's `sample-file:` names (relative to the wave file) and records its path. */
+function resolveSamples(analysis: Analysis, written: unknown, host: SpecHost): SampleSource | undefined {
+  if (typeof written !== 'string' || written.length === 0) return undefined;
+  const source = resolveSampleFile(analysis.path, written, host);
+  const files = (analysis.sampleFiles ??= []);
+  if (!files.includes(source.path)) files.push(source.path);
+  return source;
 }

@@ -102,6 +102,16 @@ export const CODES = {
     title: 'Clock file has errors',
     help: 'The clock file named by `clock:` has errors of its own, so the outputs cannot be planned. Open it and fix them.',
   },
+  'sample-file-unreadable': {
+    severity: 'error',
+    title: 'Sample file cannot be read',
+    help: 'The file named by an output\'s `sample-file:` cannot be read: it does not exist, it is not a regular file (a folder, a FIFO, a device), it is larger than waveplan reads from one file (3 MiB), or it lies outside the workspace folder (after resolving symbolic links; specs read nothing outside the folders being checked). The path is relative to the wave file.',
+  },
+  'sample-file-invalid': {
+    severity: 'error',
+    title: 'Sample file does not hold one cycle',
+    help: 'The file named by `sample-file:` is read as one cycle of the waveform: one value a line, or comma-, semicolon- or tab-separated columns of which the last is the value; blank lines and lines starting with # are skipped, and a first line that is not a number is a header. The message names the line that is not a number, or says that the file holds fewer than 2 or more than 1 048 576 values.',
+  },
   overclock: {
     severity: 'warning',
     title: 'System clock above its rating',

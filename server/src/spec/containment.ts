@@ -145,7 +145,7 @@ export class ContainedReader {
     const { facts, bytes } = opened;
     if (facts.kind !== 'file') return { refused: { code: 'not-regular', reason: `it is a ${facts.kind}, not a regular file` } };
     if (facts.size > this.maxBytes || !bytes) {
-      return { refused: { code: 'too-large', reason: `it is ${formatFileSize(facts.size)}, more than a spec can be (waveplan reads at most 1 MiB of text)`, size: facts.size } };
+      return { refused: { code: 'too-large', reason: `it is ${formatFileSize(facts.size)}, more than waveplan reads from one file (a spec holds at most 1 MiB of text; a sample file at most ${formatFileSize(this.maxBytes)})`, size: facts.size } };
     }
     return { text: new TextDecoder('utf-8').decode(bytes), real: where.real, facts };
   }

@@ -1,6 +1,7 @@
 // The table of an output that is not its plain shape: `band-limit` (the shape's harmonics below
-// f_s/2 or below a filter corner) and `harmonics` (an amplitude/phase list), read into the
-// CustomWave descriptions of signal/custom-tables.ts, with the diagnostics of what cannot be read.
+// f_s/2 or below a filter corner), `harmonics` (an amplitude/phase list) and `sample-file` (one
+// cycle read from a file, sample-file.ts), read into the CustomWave descriptions of
+// signal/custom-tables.ts, with the diagnostics of what cannot be read.
 
 import type { Document } from 'yaml';
 import { parseQuantity, magnitudeProblem, MIN_FREQUENCY_HZ } from '../../../shared-schema/src/quantity';
@@ -11,10 +12,11 @@ import type { OutputEntry } from '../../../shared-schema/src/wave-schema';
 import type { CustomWave } from '../planning/custom-wave';
 import { bandLimitedWave, harmonicsWave, MAX_HARMONIC_ORDER } from '../signal/custom-tables';
 import { locate, scalarText, valueRange } from './nodes';
+import type { SampleSource } from './sample-file';
 import type { LineIndex } from './source';
 import type { Range } from './types';
 
-export type CustomCode = 'unused-key' | 'bad-harmonics' | 'bad-unit' | 'bad-quantity' | 'out-of-range';
+export type CustomCode = 'unused-key' | 'bad-harmonics' | 'bad-unit' | 'bad-quantity' | 'out-of-range' | 'sample-file-unreadable' | 'sample-file-invalid' | 'seam-glitch';
 export type Push = (code: CustomCode, range: Range, message: string) => void;
 
 export interface CustomContext {
@@ -29,10 +31,18 @@ export interface CustomContext {
   /** The range of a key's value in this output (the output's name when it has none). */
   at: (key: string) => Range;
   push: Push;
+  /** The file `sample-file:` names, read (when the entry has one). */
+  samples?: SampleSource;
 }
 
 /** The custom table, {} for the plain shape, or null when what is asked defines no table (an error says why). */
 export function customTable(c: CustomContext): { custom?: CustomWave } | null {
+  const fromFile = sampleFile(c);
+  if (fromFile === null) return null;
+  if (fromFile.custom) {
+    if (c.entry.harmonics !== undefined) c.push('unused-key', c.at('harmonics'), 'harmonics is not read when sample-file gives the table: remove one of them.');
+    return fromFile;
+  }
   const listed = harmonics(c);
   if (listed === null) return null;
   const limited = bandLimit(c);
@@ -97,4 +107,31 @@ function harmonics(c: CustomContext): { custom?: CustomWave } | null {
     return null;
   }
   return { custom: harmonicsWave(list.map((h) => ({ order: h.order, amplitude: h.amplitude, phaseDeg: h.phase ?? 0 }))) };
+}
+
+/**
+ * `sample-file:` with `shape: sine`: the file's cycle. A file that cannot be read or parsed is an
+ * error and null; a cycle whose wrap is not like its other steps is a seam-glitch warning (the
+ * table is still planned from it).
+ */
+function sampleFile(c: CustomContext): { custom?: CustomWave } | null {
+  const written = c.entry['sample-file'];
+  if (written === undefined || !c.samples) return {};
+  const range = c.at('sample-file');
+  if (c.shape !== 'sine') {
+    c.push('unused-key', range, `sample-file defines the waveform with shape: sine; this output is a ${c.shape}: write shape: sine or remove sample-file.`);
+    return {};
+  }
+  const read = c.samples.read;
+  if (!read.ok) {
+    c.push(read.code, range, read.message);
+    return null;
+  }
+  if (read.seam.repeatsFirst) {
+    c.push('seam-glitch', range, `The last value of ${written} repeats its first, so the table dwells one sample at the wrap every cycle: the file holds its cycle's end point; remove the last value.`);
+  } else if (!read.seam.ok) {
+    const ratio = Number.isFinite(read.seam.wrapToLargestStep) ? `${read.seam.wrapToLargestStep.toFixed(1)} times` : 'larger than';
+    c.push('seam-glitch', range, `The wrap from the last value of ${written} back to its first is ${ratio} the largest step inside the cycle, a jump at every wrap: the file holds no whole cycle, or its jump sits at the end; start the file elsewhere in the cycle if the jump is the waveform's own.`);
+  }
+  return { custom: read.wave };
 }

@@ -11,6 +11,7 @@ import type { Hardware } from '../planning/types';
 import { Memo } from './memo';
 import { type PlannedOutput, planEntry } from './output-plan';
 import { Quantities, readOutputQuantities } from './quantities';
+import type { SampleSource } from './sample-file';
 import { schemaDiagnostics } from './schema-issues';
 import { endsWithLineBreak, lineBreakCount } from './line-breaks';
 import type { OutputPiece } from './segments';
@@ -29,10 +30,12 @@ export interface PieceReading {
   /** No error blocks planning and the entry matches the output schema. */
   plannable: boolean;
   /**
-   * Planned results per hardware (a clock file's text gives one Hardware object: see analyze.ts)
-   * and per step share of the file's planning work (planning/work.ts).
+   * Planned results per hardware (a clock file's text gives one Hardware object: see analyze.ts),
+   * per step share of the file's planning work (planning/work.ts) and per sample file read.
    */
-  planned: WeakMap<Hardware, Map<number, PlannedOutput | null>>;
+  planned: WeakMap<Hardware, Map<string, PlannedOutput | null>>;
+  /** The `sample-file:` value as written, when the entry has one: planning depends on that file's text too. */
+  sampleFile?: string;
   /** The parse, kept only until the first planning so a new output is not parsed twice. */
   parsed?: Parsed;
   /** The diagnostics and output moved to the file's lines, for the line the piece was last on. */
@@ -109,10 +112,12 @@ function read(piece: OutputPiece): PieceReading {
   if (!own.every((d) => rangeIn(ok, d.range))) return NOT_READABLE;
   const blocked = own.some((d) => d.severity === 'error' && d.code !== 'duplicate-output');
   const plannable = !blocked && outputSchema.safeParse(data.outputs[piece.name]).success;
-  return { ok: true, schema, quantities, plannable, planned: new WeakMap(), parsed: plannable ? parsed : undefined };
+  const written = (data.outputs[piece.name] as { 'sample-file'?: unknown } | null)?.['sample-file'];
+  const sampleFile = typeof written === 'string' ? { sampleFile: written } : {};
+  return { ok: true, schema, quantities, plannable, planned: new WeakMap(), parsed: plannable ? parsed : undefined, ...sampleFile };
 }
 
-function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number): PlannedOutput | null {
+function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number, samples: SampleSource | undefined): PlannedOutput | null {
   let parsed = reading.parsed;
   reading.parsed = undefined;
   if (!parsed) {
@@ -122,7 +127,7 @@ function plan(piece: OutputPiece, reading: PieceReading, hardware: Hardware, ste
     parsed = again;
   }
   const { doc, lines, data, quantities } = parsed;
-  const planned = planEntry(piece.name, data.outputs[piece.name] as OutputEntry, quantities, hardware, doc, lines, steps);
+  const planned = planEntry(piece.name, data.outputs[piece.name] as OutputEntry, quantities, hardware, doc, lines, steps, samples);
   const ok = inPiece(piece);
   const o = planned.output;
   const ranges = o ? [o.nameRange, o.entryRange, ...Object.values(o.valueRanges)] : [];
@@ -148,19 +153,27 @@ export function readPiece(piece: OutputPiece): PieceReading {
 }
 
 /** Whether the piece is planned on this hardware already (planPiece then costs nothing). */
-export const isPlanned = (reading: PieceReading, hardware: Hardware, steps: number): boolean => reading.planned.get(hardware)?.has(steps) === true;
+export const isPlanned = (reading: PieceReading, hardware: Hardware, steps: number, samples?: SampleSource): boolean =>
+  reading.planned.get(hardware)?.has(planKey(steps, samples)) === true;
+
+const planKey = (steps: number, samples: SampleSource | undefined): string => (samples === undefined ? String(steps) : `${steps}\u0000${samples.key}`);
+
+// A piece with a sample file is planned again when the file's text changes; its older plans go.
+const KEPT_PER_PIECE = 4;
 
 /** The planned output; null when it does not read on its own (the file is then read whole). */
-export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number): PlannedOutput | null {
+export function planPiece(piece: OutputPiece, reading: PieceReading, hardware: Hardware, steps: number, samples?: SampleSource): PlannedOutput | null {
   let byShare = reading.planned.get(hardware);
   if (byShare === undefined) {
     byShare = new Map();
     reading.planned.set(hardware, byShare);
   }
-  let planned = byShare.get(steps);
+  const key = planKey(steps, samples);
+  let planned = byShare.get(key);
   if (planned === undefined) {
-    planned = plan(piece, reading, hardware, steps);
-    byShare.set(steps, planned);
+    planned = plan(piece, reading, hardware, steps, samples);
+    byShare.set(key, planned);
+    if (byShare.size > KEPT_PER_PIECE) byShare.delete(byShare.keys().next().value!);
   }
   return planned;
 }

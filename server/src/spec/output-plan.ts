@@ -13,6 +13,7 @@ import { qualityFloor, signalDiagnostics } from './signal-diagnostics';
 import type { Quantities } from './quantities';
 import { type LineIndex, diagnostic } from './source';
 import type { OutputAnalysis, SpecDiagnostic } from './types';
+import type { SampleSource } from './sample-file';
 import { buildOutput } from './wave-model';
 
 export interface PlannedOutput {
@@ -23,9 +24,12 @@ export interface PlannedOutput {
   tableBytes: number;
 }
 
-/** `steps`: the output's share of its file's planning work (planning/work.ts stepsPerOutput). */
-export function planEntry(name: string, entry: OutputEntry, quantities: Quantities, hardware: Hardware, doc: Document.Parsed, lines: LineIndex, steps?: number): PlannedOutput {
-  const built = buildOutput(name, entry, quantities, hardware, doc, lines);
+/**
+ * `steps`: the output's share of its file's planning work (planning/work.ts stepsPerOutput);
+ * `samples`: the file the entry's `sample-file:` names, read (sample-file.ts).
+ */
+export function planEntry(name: string, entry: OutputEntry, quantities: Quantities, hardware: Hardware, doc: Document.Parsed, lines: LineIndex, steps?: number, samples?: SampleSource): PlannedOutput {
+  const built = buildOutput(name, entry, quantities, hardware, doc, lines, samples);
   const diagnostics = [...built.diagnostics];
   const draft = built.draft;
   if (!draft) return { diagnostics, tableBytes: 0 };

@@ -85,6 +85,8 @@ export interface Analysis {
   hardware: Hardware | null;
   /** Wave specs: the absolute path `clock:` resolves to, if any. */
   clockPath: string | null;
+  /** Wave specs: the absolute paths the outputs' `sample-file:` values resolve to, if any. */
+  sampleFiles?: string[];
   /** Groups of outputs planned together (wave specs with `groups:`). */
   groups?: GroupAnalysis[];
   /** Total table bytes of all planned outputs against hardware.memory.budgetBytes. */

@@ -15,6 +15,7 @@ import { Memo } from './memo';
 import { keyRange, valueRange } from './nodes';
 import { type PieceReading, isPlanned, mapPiece, pieceSyntax, placePlan, placeReading, planPiece, readPiece } from './output-cache';
 import { quantityKeys } from './quantities';
+import type { SampleSource } from './sample-file';
 import { type Segments, splitWave } from './segments';
 import { WAVE_OUTPUTS, flowDepthBreach, readSource } from './source';
 import { splitTree } from './split-tree';
@@ -47,6 +48,8 @@ export interface WaveSteps {
   maxOutputs: number;
   /** Resolves `clock:` (the value and its range in the file); pushes its own diagnostics. */
   resolveClock(analysis: Analysis, clock: unknown, range: Range): Hardware | null;
+  /** Reads the file an output's `sample-file:` names (`written` as in the spec) and records it. */
+  resolveSamples?(analysis: Analysis, written: unknown): SampleSource | undefined;
   overBudget(analysis: Analysis, usedBytes: number, hardware: Hardware, outputsKey: Range): void;
 }
 
@@ -131,8 +134,9 @@ export function* analyzeWaveFastSteps(analysis: Analysis, steps: WaveSteps): Gen
   let usedBytes = 0;
   for (let i = 0; i < seg.pieces.length; i++) {
     if (!readings[i].plannable) continue;
-    const fresh = !isPlanned(readings[i], hardware, share);
-    const p = planPiece(seg.pieces[i], readings[i], hardware, share);
+    const samples = steps.resolveSamples?.(analysis, readings[i].sampleFile);
+    const fresh = !isPlanned(readings[i], hardware, share, samples);
+    const p = planPiece(seg.pieces[i], readings[i], hardware, share, samples);
     done++;
     if (p === null) {
       if (exact) return false;

@@ -24,6 +24,7 @@ import type { Hardware, OutputRequest, PinnedPlan } from '../planning/types';
 import { diagnostic, type LineIndex } from './source';
 import { placeholderFor } from './schema-issues';
 import { customTable } from './custom-model';
+import type { SampleSource } from './sample-file';
 import { readSteps } from './steps-model';
 import { entryRange, keyRange, locate, valueRange } from './nodes';
 import type { Quantities } from './quantities';
@@ -77,6 +78,7 @@ export function buildOutput(
   hw: Hardware,
   doc: Document.Parsed,
   lines: LineIndex,
+  samples?: SampleSource,
 ): { draft: OutputDraft | null; diagnostics: SpecDiagnostic[] } {
   const diagnostics: SpecDiagnostic[] = [];
   const nameRange = keyRange(doc, lines, ['outputs', name])!;
@@ -141,14 +143,17 @@ export function buildOutput(
   // S max: as written (never below the floor, which rules), else derived from the swing in LSB.
   const swingLsb = fullScale.num > 0n ? toNumber(div(mul(amplitude, rat(codes)), fullScale)) : 0;
   const ceilingText = get('max-samples-per-cycle');
-  let maxSamplesPerCycle = ceilingText?.value ?? defaultMaxSamplesPerCycle(shape, swingLsb, dutyTolerance, minSamplesPerCycle);
+  // A sample file's cycle plays sample for sample at S = K, its number of values (never below the floor).
+  const fileValues = shape === 'sine' && samples?.read.ok ? rat(BigInt(samples.read.count)) : undefined;
+  const fileCeiling = fileValues && (cmp(fileValues, minSamplesPerCycle) < 0 ? minSamplesPerCycle : fileValues);
+  let maxSamplesPerCycle = ceilingText?.value ?? fileCeiling ?? defaultMaxSamplesPerCycle(shape, swingLsb, dutyTolerance, minSamplesPerCycle);
   if (maxSamplesPerCycle !== null && cmp(maxSamplesPerCycle, minSamplesPerCycle) < 0) {
     push('samples-per-cycle', at('max-samples-per-cycle'), `max-samples-per-cycle ${toDecimal(maxSamplesPerCycle, 6)} is below min-samples-per-cycle ${toDecimal(minSamplesPerCycle, 6)}, so the floor rules: raise it or lower the floor.`);
     maxSamplesPerCycle = minSamplesPerCycle;
   }
 
   const targetsHz = steps !== undefined ? steps.map((st) => st.targetHz) : [targetHz];
-  const custom = customTable({ name, entry, shape, duty, targetsHz, doc, lines, at, push });
+  const custom = customTable({ name, entry, shape, duty, targetsHz, doc, lines, at, push, samples });
   if (custom === null) return { draft: null, diagnostics };
   const request: OutputRequest = {
     targetHz,
