@@ -46,6 +46,8 @@ function banner(spec: LoadedSpec, fileName: string, forced: boolean): string {
     `sha256: ${spec.contentHash}`,
     '        (of the spec text, a NUL byte, then the clock text, with LF line endings)',
   ];
+  const samples = spec.analysis.sampleFiles?.length ?? 0;
+  if (samples > 0) lines.push(`        then, for each of the ${samples} sample file${samples === 1 ? '' : 's'} read, a NUL byte and the hex sha256 of its text`);
   if (forced) {
     const n = spec.errors.length;
     lines.push(

@@ -42,12 +42,14 @@ function shownPath(abs: string, cwd: string): string {
 
 const lf = (text: string): string => text.replace(/\r\n?/g, '\n');
 
-export function contentHash(specText: string, clockText: string | undefined): string {
-  return createHash('sha256')
+/** sha256 of the spec and its clock file, and of the sample files its outputs read, when they read any. */
+export function contentHash(specText: string, clockText: string | undefined, sampleFiles: Analysis['sampleFiles'] = []): string {
+  const hash = createHash('sha256')
     .update(lf(specText), 'utf8')
     .update('\0')
-    .update(lf(clockText ?? ''), 'utf8')
-    .digest('hex');
+    .update(lf(clockText ?? ''), 'utf8');
+  for (const f of sampleFiles) hash.update(`\0${f.sha256 ?? 'unread'}`);
+  return hash.digest('hex');
 }
 
 export interface LoadedRun {
@@ -91,7 +93,7 @@ export function describeSpec(file: string, text: string, analysis: Analysis, clo
     path: shownPath(file, cwd),
     clockPath: analysis.clockPath ? shownPath(analysis.clockPath, cwd) : null,
     analysis,
-    contentHash: contentHash(text, clockText),
+    contentHash: contentHash(text, clockText, analysis.sampleFiles),
     errors: analysis.diagnostics.filter((d) => d.severity === 'error'),
   };
 }

@@ -203,6 +203,6 @@ function resolveSamples(analysis: Analysis, written: unknown, host: SpecHost): S
   if (typeof written !== 'string' || written.length === 0) return undefined;
   const source = resolveSampleFile(analysis.path, written, host);
   const files = (analysis.sampleFiles ??= []);
-  if (!files.includes(source.path)) files.push(source.path);
+  if (!files.some((f) => f.path === source.path)) files.push({ path: source.path, sha256: source.sha256 });
   return source;
 }

@@ -32,13 +32,15 @@ export interface SampleSource {
   path: string;
   /** Identity of what was read (path and digest of the text, or the refusal): part of memo keys. */
   key: string;
+  /** sha256 of the text read (hex), null when the file could not be read. */
+  sha256: string | null;
   read: SampleRead;
 }
 
 const parsed = new Memo<string, SampleRead & { digest: string }>(16);
 
 function readText(text: string, written: string): SampleRead & { digest: string } {
-  const digest = createHash('sha256').update(text).digest('hex').slice(0, 24);
+  const digest = createHash('sha256').update(text, 'utf8').digest('hex');
   const result = parseSampleFile(text);
   if (!result.ok) {
     const said = result.message.replace(/ of the sample file/, '').replace(/^The sample file /, 'it ').replace(/^./, (c) => c.toLowerCase());
@@ -53,9 +55,9 @@ export function resolveSampleFile(specPath: string, written: string, host: SpecH
   const got = readReferenced(host, path);
   if (!('text' in got)) {
     const reason = got.why ?? `no such file (looked for ${path}); check the path, which is relative to this file`;
-    return { path, key: `${path}\u0000refused\u0000${reason}`, read: { ok: false, code: 'sample-file-unreadable', message: `Cannot read the sample file ${written}: ${reason}.` } };
+    return { path, key: `${path}\u0000refused\u0000${reason}`, sha256: null, read: { ok: false, code: 'sample-file-unreadable', message: `Cannot read the sample file ${written}: ${reason}.` } };
   }
   // Keyed by the text: the message names the file as written, so the key holds that too.
   const read = parsed.get(`${written}\u0000${got.text}`, (k) => readText(k.slice(written.length + 1), written));
-  return { path, key: `${path}\u0000${read.digest}`, read };
+  return { path, key: `${path}\u0000${read.digest}`, sha256: read.digest, read };
 }

@@ -85,8 +85,11 @@ export interface Analysis {
   hardware: Hardware | null;
   /** Wave specs: the absolute path `clock:` resolves to, if any. */
   clockPath: string | null;
-  /** Wave specs: the absolute paths the outputs' `sample-file:` values resolve to, if any. */
-  sampleFiles?: string[];
+  /**
+   * Wave specs: the files the outputs' `sample-file:` values resolve to (absolute paths), each with
+   * the sha256 of the text read (null when it could not be read).
+   */
+  sampleFiles?: { path: string; sha256: string | null }[];
   /** Groups of outputs planned together (wave specs with `groups:`). */
   groups?: GroupAnalysis[];
   /** Total table bytes of all planned outputs against hardware.memory.budgetBytes. */

@@ -33,7 +33,8 @@ describe('sample-file: through the spec layer', () => {
     const a = analyze('/w/r.wave.yaml', spec(), host);
     expect(a.diagnostics).toEqual([]);
     expect(read).toContain('/w/cycle.csv');
-    expect(a.sampleFiles).toEqual(['/w/cycle.csv']);
+    expect(a.sampleFiles?.map((f) => f.path)).toEqual(['/w/cycle.csv']);
+    expect(a.sampleFiles![0]!.sha256).toMatch(/^[0-9a-f]{64}$/);
     const plan = a.outputs[0]!.planning.plan!;
     expect([plan.tableLength, Number(plan.cycles.num)]).toEqual([100, 1]);
     const values = ramp(100).trim().split('\n').map(Number);
