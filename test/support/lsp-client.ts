@@ -88,6 +88,8 @@ export class LspClient {
   readonly logs: string[] = [];
   readonly progress: unknown[] = [];
   readonly serverRequests: string[] = [];
+  /** The params of every client/registerCapability request, in order. */
+  readonly registrations: unknown[] = [];
   settings: Record<string, unknown>;
   /** Called before the client answers a server request; tests use it to act at a known moment. */
   beforeAnswer: (method: string) => void = () => {};
@@ -149,8 +151,9 @@ export class LspClient {
       return params.items.map(() => this.settings);
     });
     for (const method of ['client/registerCapability', 'client/unregisterCapability', 'window/workDoneProgress/create', 'workspace/inlayHint/refresh', 'workspace/diagnostic/refresh', 'workspace/codeLens/refresh', 'workspace/semanticTokens/refresh']) {
-      c.onRequest(method, () => {
+      c.onRequest(method, (params: unknown) => {
         note(method);
+        if (method === 'client/registerCapability') this.registrations.push(params);
         this.beforeAnswer(method);
         this.wake();
         return null;

@@ -1,6 +1,7 @@
-// Which wave specs read which clock file. A clock file edited in the editor, changed on disk,
-// opened or closed re-checks every wave spec that references it, open or not; open buffers
-// win over the disk (the SpecHost in documents.ts).
+// Which wave specs read which clock file and which sample files. A clock file edited in the
+// editor, changed on disk, opened or closed re-checks every wave spec that references it, open or
+// not; open buffers win over the disk (the SpecHost in documents.ts). A sample file is known from
+// the analyses that read it, and changes only on disk.
 
 import * as fs from 'node:fs';
 import * as nodePath from 'node:path';
@@ -22,8 +23,26 @@ export class Dependencies {
     private readonly publisher: DiagnosticsPublisher,
   ) {}
 
+  /** wave spec path → the sample files its outputs' `sample-file:` values resolved to. */
+  private readonly samplesOf = new Map<string, string[]>();
+
   record(analysis: Analysis): void {
-    if (analysis.kind === 'wave') this.recordClock(analysis.path, analysis.clockPath);
+    if (analysis.kind !== 'wave') return;
+    this.recordClock(analysis.path, analysis.clockPath);
+    const samples = (analysis.sampleFiles ?? []).map((f) => f.path);
+    if (samples.length > 0) this.samplesOf.set(analysis.path, samples);
+    else this.samplesOf.delete(analysis.path);
+  }
+
+  /** True when an analysed wave spec reads `path` as a sample file. */
+  isSampleFile(path: string): boolean {
+    for (const files of this.samplesOf.values()) if (files.includes(path)) return true;
+    return false;
+  }
+
+  /** Every sample file an analysed wave spec reads. */
+  sampleFiles(): Set<string> {
+    return new Set([...this.samplesOf.values()].flat());
   }
 
   /** The clock file a wave spec reads (from clockReference when the spec was not analysed). */
@@ -34,11 +53,14 @@ export class Dependencies {
 
   forget(path: string): void {
     this.clockOf.delete(path);
+    this.samplesOf.delete(path);
   }
 
-  dependents(clockPath: string): string[] {
+  /** The wave specs that read `path`, as their clock file or as a sample file. */
+  dependents(path: string): string[] {
     const out: string[] = [];
-    for (const [wave, clock] of this.clockOf) if (clock === clockPath) out.push(wave);
+    for (const [wave, clock] of this.clockOf) if (clock === path) out.push(wave);
+    for (const [wave, files] of this.samplesOf) if (files.includes(path) && !out.includes(wave)) out.push(wave);
     return out;
   }
 

@@ -30,6 +30,7 @@ import { EXPORT_C, exportC, HTML_REPORT, htmlReport } from './export-commands';
 import { hover } from './hover';
 import { inlayHints } from './inlay-hints';
 import { guard, guardNotification, yieldToEvents } from './safe';
+import { SampleWatch } from './sample-watch';
 import { SettingsCache } from './settings';
 import { clockSymbols, waveSymbols } from './symbols';
 
@@ -44,7 +45,11 @@ export function startServer(): void {
   const settings = new SettingsCache(connection);
   const publisher = new DiagnosticsPublisher(connection, docs);
   const deps = new Dependencies(docs, publisher);
-  publisher.onAnalysed = (analysis) => deps.record(analysis);
+  const sampleWatch = new SampleWatch(connection);
+  publisher.onAnalysed = (analysis) => {
+    deps.record(analysis);
+    sampleWatch.watch(deps.sampleFiles());
+  };
 
   let folders: string[] = [];
   let canWatchFiles = false;
@@ -57,6 +62,7 @@ export function startServer(): void {
     const caps = params.capabilities;
     settings.setPullSupported(!!caps.workspace?.configuration);
     canWatchFiles = !!caps.workspace?.didChangeWatchedFiles?.dynamicRegistration;
+    sampleWatch.configure(canWatchFiles, !!caps.workspace?.didChangeWatchedFiles?.relativePatternSupport);
     canRefreshHints = !!caps.workspace?.inlayHint?.refreshSupport;
     canRefreshLenses = !!caps.workspace?.codeLens?.refreshSupport;
     canCreateProgress = !!caps.window?.workDoneProgress;
@@ -158,6 +164,8 @@ export function startServer(): void {
         }
         if (path.endsWith('.clock.yaml')) {
           if (change.type !== FileChangeType.Deleted) await publisher.publishClosed(path);
+          await deps.recheckReaders(path);
+        } else if (deps.isSampleFile(path)) {
           await deps.recheckReaders(path);
         }
       }
