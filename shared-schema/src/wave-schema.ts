@@ -155,7 +155,7 @@ export const outputSchema = z.strictObject({
 }).describe('One output: the waveform, its frequency and tolerance, and the limits its plan must keep.');
 
 /** Outputs tied together: one sample clock, and with `lock: phase` one table length and stated phases. */
-const groupSchema = z
+export const groupSchema = z
   .strictObject({
     description: optional(z.string(), 'Free text about this group; waveplan shows it and does not read it.'),
     outputs: required(

@@ -3,7 +3,7 @@
 
 import type { Document } from 'yaml';
 import { DEFAULT_TOLERANCE } from '../../../shared-schema/src/defaults';
-import type { GroupEntry } from '../../../shared-schema/src/wave-schema';
+import { groupSchema, type GroupEntry } from '../../../shared-schema/src/wave-schema';
 import { formatSeconds } from '../../../shared-schema/src/quantity-format';
 import { countedBytes, planGroup, sharingOutputs } from '../planning/board-plan';
 import { specBoardOf } from './board-budget';
@@ -31,6 +31,8 @@ export function applyGroups(analysis: Analysis, groups: Record<string, GroupEntr
   const taken = new Map<string, string>();
   const out: GroupAnalysis[] = [];
   for (const [name, entry] of Object.entries(groups)) {
+    // An entry the schema refuses (no `outputs`, say) has its diagnostics already; nothing to plan.
+    if (!groupSchema.safeParse(entry).success) continue;
     const at = (...p: (string | number)[]) => valueRange(doc, lines, ['groups', name, ...p]) ?? rangeFor(doc, lines, ['groups', name, ...p]);
     const problem = (range: ReturnType<typeof at>, message: string) => analysis.diagnostics.push(diagnostic('group', range, message));
     const lock = entry.lock ?? 'sample-clock';
