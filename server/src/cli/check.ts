@@ -4,7 +4,7 @@
 
 import * as path from 'node:path';
 import { analyze, kindOf } from '../spec/analyze';
-import { diagnostic } from '../spec/source';
+import { diagnostic, tooLargeMessage } from '../spec/source';
 import type { Analysis } from '../spec/types';
 import { parseCheckArgs } from './args';
 import { tally, type CheckedFile } from './checked';
@@ -76,6 +76,6 @@ function readAndAnalyze(file: string, host: DiskHost, relative: (abs: string) =>
   const refusal = host.refusal(file);
   if (refusal?.code !== 'too-large') throw new CliInputError(`cannot read ${relative(file)}: ${refusal?.reason ?? 'unreadable'}`);
   const start = { line: 0, character: 0 };
-  const d = diagnostic('file-too-large', { start, end: start }, `The file ${refusal.reason}: check that this is the spec you meant.`);
+  const d = diagnostic('file-too-large', { start, end: start }, tooLargeMessage(refusal.size ?? 0));
   return { path: file, kind: kindOf(file), text: '', diagnostics: [d], outputs: [], hardware: null, clockPath: null, memory: null };
 }

@@ -5,6 +5,7 @@
 
 import { type Document, type Node, type Pair, isAlias, isCollection, isPair, isScalar, isSeq, parseDocument } from 'yaml';
 import { type Code, codeInfo } from './codes';
+import { formatFileSize } from '../../../shared-schema/src/quantity-format';
 import { forYaml, lineStarts } from './line-breaks';
 import type { Position, Range, SpecDiagnostic } from './types';
 
@@ -158,6 +159,14 @@ export const WAVE_OUTPUTS = (path: string[]): boolean => path.length === 1 && pa
 const KEPT_TEXT_CHARS = 256 * 1024;
 let lastWave: { original: string; source: Source } | undefined;
 
+/**
+ * The file-too-large message, from the file's size in bytes as UTF-8 (the editor's text as it
+ * would be saved, the checker's file as it is on disk), so both faces say the same.
+ */
+export function tooLargeMessage(bytes: number): string {
+  return `The file is ${formatFileSize(bytes)}, more than a spec can be (waveplan reads at most 1 MiB of text): check that this is the spec you meant.`;
+}
+
 /** Parses a spec's text; never throws. `isOutputs` tells which mapping holds output names. */
 export function readSource(raw: string, isOutputs: (path: string[]) => boolean = () => false): Source {
   if (isOutputs === WAVE_OUTPUTS && lastWave?.original === raw) return lastWave.source;
@@ -171,8 +180,7 @@ function parse(raw: string, isOutputs: (path: string[]) => boolean): Source {
   const lines = new LineIndex(text);
   const fail = (d: SpecDiagnostic): Source => ({ text, lines, doc: null, tree: null, data: undefined, diagnostics: [d] });
   if (text.length > MAX_FILE_CHARS) {
-    const mb = (text.length / 1024 / 1024).toFixed(1);
-    return fail(diagnostic('file-too-large', lines.range(0, 0), `The file is ${mb} MB, more than the 1 MB waveplan reads: check that this is the spec you meant.`));
+    return fail(diagnostic('file-too-large', lines.range(0, 0), tooLargeMessage(Buffer.byteLength(raw, 'utf8'))));
   }
   const breach = flowDepthBreach(text);
   if (breach !== undefined) {
