@@ -10,7 +10,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeCase, caseFiles, bigSize } from '../support/fuzz/cases';
 import { checkOnDisk } from '../support/fuzz/checker-side';
-import { fuzzConfig, runsCase } from '../support/fuzz/config';
+import { fuzzConfig, runsCase, sessionKind } from '../support/fuzz/config';
 import { fuzzWorkspace, type Workspace } from '../support/fuzz/corpus';
 import { runSession } from '../support/fuzz/session';
 import { rssKib, Tally } from '../support/fuzz/tally';
@@ -50,7 +50,10 @@ describe('fuzz', () => {
     for (let n = 0; n < config.cases; n++) {
       if (!runsCase(config, n)) continue;
       const c = makeCase(config, checkerWs.seeds, n);
-      const { problems, analyses } = checkOnDisk(caseFiles(c, 'case'), checkerWs.dir);
+      // Every 25th case also through the built bundle, as users run it.
+      const bundled = n % 25 === 0;
+      const { problems, analyses } = checkOnDisk(caseFiles(c, 'case'), checkerWs.dir, bundled);
+      if (bundled) tally.count('bundled checker runs');
       tally.count('cases');
       if (bigSize(config, n)) tally.count('large files');
       for (const a of analyses) tally.analysis(`case ${n} (${c.seed.name}, ${a.analysis.text.length} chars)`, a.ms);
@@ -59,15 +62,17 @@ describe('fuzz', () => {
     expect(failuresSince(from)).toStrictEqual([]);
   }, budgetMs);
 
-  it(`server sessions: no crash, no error answer, ranges on the text, editor equals checker, quick fixes keep the rest (every ${config.sessionEvery}th case)`, async () => {
+  it(`server sessions: no crash, no error answer, ranges on the text, editor equals checker, quick fixes keep the rest (2 in every ${config.sessionEvery} cases)`, async () => {
     const from = tally.failures.length;
-    for (let n = 0; n < config.cases; n += config.sessionEvery) {
-      if (!runsCase(config, n)) continue;
+    for (let n = 0; n < config.cases; n++) {
+      const kind = sessionKind(config, n);
+      if (!kind || !runsCase(config, n)) continue;
       const c = makeCase(config, serverWs.seeds, n);
-      const result = await runSession(client, config, c, serverWs.dir, tally);
-      tally.count('sessions');
+      const result = await runSession(client, config, c, serverWs.dir, tally, kind);
+      tally.count(`${kind === 'edits' ? 'editing' : 'fixing'} sessions`);
       tally.count('edits', result.edits);
-      tally.fail(n, `session, ${c.seed.name}, ${c.kinds.join(' + ')}`, result.problems);
+      tally.fail(n, `${kind === 'edits' ? 'editing' : 'fixing'} session, ${c.seed.name}, ${kind === 'edits' ? c.kinds.join(' + ') : 'one mild change'}`, result.problems);
+      tally.rssAfter(n, rssKib(client.process.pid), `${c.seed.name}, ${c.text.length} chars`);
       if (!client.alive) break;
     }
     expect(client.alive).toBe(true);

@@ -30,7 +30,9 @@ export function makeCase(config: FuzzConfig, seeds: readonly Seed[], n: number, 
   // Large files grow from wave specs with outputs, so they are specs of thousands of outputs.
   const seed = big ? pick(r, seeds.filter((s) => s.kind === 'wave' && /^outputs:/m.test(s.text))) : pick(r, seeds);
   const mutated = mutate(seed.text, r);
-  const text = big ? bigFile(mutated.text, r, big) : mutated.text;
+  // A large file starts without a byte order mark: its size on disk would count the mark an
+  // editor's buffer does not hold, and the size is what its finding reports.
+  const text = big ? bigFile(mutated.text.replace(/^\ufeff+/, ''), r, big) : mutated.text;
   const kinds = big ? [...mutated.kinds, `big-file ${(text.length / 1e6).toFixed(2)} M`] : mutated.kinds;
   if (seed.kind === 'wave') return { n, seed, kinds, text };
   const waves = seeds.filter((s) => s.kind === 'wave' && s.folder === seed.folder && /^clock:/m.test(s.text));

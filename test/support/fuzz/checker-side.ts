@@ -2,13 +2,18 @@
 // analyze() and checked by `waveplan check --format json` in this process (the same entry the
 // command line runs). Both must give the same findings, with ranges on the text and no internal error.
 
+import { spawnSync } from 'node:child_process';
 import * as fs from 'node:fs';
+import * as path from 'node:path';
 import { runCheck } from '../../../server/src/cli/check';
 import { DiskHost } from '../../../server/src/cli/disk';
 import type { JsonDiagnostic, JsonReport } from '../../../server/src/cli/format-json';
 import { analyze } from '../../../server/src/spec/analyze';
 import type { Analysis, SpecDiagnostic } from '../../../server/src/spec/types';
+import { ROOT } from '../lsp-client';
 import { diagnosticProblems } from '../ranges';
+
+const BIN = path.join(ROOT, 'bin', 'waveplan.js');
 
 /** A finding as both faces can report it: 1-based, as the checker's JSON has it. */
 export type Finding = Omit<JsonDiagnostic, 'output'>;
@@ -56,6 +61,26 @@ export interface Checked {
   problems: string[];
 }
 
+const checkArgs = (files: readonly string[], root: string) => [...files, '--format', 'json', '--root', root];
+
+/** The report's findings, and what is wrong with the run itself (stderr, an exit code that disagrees). */
+function readReport(stdout: string, stderr: string, exitCode: number, where: string): Checked {
+  let report: JsonReport;
+  try {
+    report = JSON.parse(stdout) as JsonReport;
+  } catch {
+    return { files: [], exitCode, problems: [`${where} wrote no JSON report (exit ${exitCode}): ${stdout.slice(0, 200)} ${stderr.slice(0, 300)}`] };
+  }
+  const problems: string[] = stderr ? [`${where} wrote to stderr: ${stderr.slice(0, 300)}`] : [];
+  const errors = report.files.some((f) => f.diagnostics.some((d) => d.severity === 'error'));
+  if (exitCode !== (errors ? 1 : 0)) problems.push(`${where}: exit code ${exitCode} with${errors ? '' : 'out'} errors in the report`);
+  return {
+    files: report.files.map((f) => ({ path: f.path, findings: f.diagnostics.map(({ severity, code, message, line, column, endLine, endColumn }) => ({ severity, code, message, line, column, endLine, endColumn })) })),
+    exitCode,
+    problems,
+  };
+}
+
 /** `waveplan check <files> --format json --root <root>`, in process. */
 export function runChecker(files: readonly string[], root: string): Checked {
   let stdout = '';
@@ -63,19 +88,18 @@ export function runChecker(files: readonly string[], root: string): Checked {
   const io = { cwd: root, stdout: (t: string) => void (stdout += t), stderr: (t: string) => void (stderr += t) };
   let exitCode: number;
   try {
-    exitCode = runCheck([...files, '--format', 'json', '--root', root], io, { version: '0.0.0-fuzz', informationUri: 'https://example.invalid/waveplan' });
+    exitCode = runCheck(checkArgs(files, root), io, { version: '0.0.0-fuzz', informationUri: 'https://example.invalid/waveplan' });
   } catch (e) {
     return { files: [], exitCode: -1, problems: [`the checker threw: ${(e as Error).stack ?? String(e)}`] };
   }
-  const report = JSON.parse(stdout) as JsonReport;
-  const problems: string[] = stderr ? [`the checker wrote to stderr: ${stderr.slice(0, 300)}`] : [];
-  const errors = report.files.some((f) => f.diagnostics.some((d) => d.severity === 'error'));
-  if (exitCode !== (errors ? 1 : 0)) problems.push(`exit code ${exitCode} with${errors ? '' : 'out'} errors in the report`);
-  return {
-    files: report.files.map((f) => ({ path: f.path, findings: f.diagnostics.map(({ severity, code, message, line, column, endLine, endColumn }) => ({ severity, code, message, line, column, endLine, endColumn })) })),
-    exitCode,
-    problems,
-  };
+  return readReport(stdout, stderr, exitCode, 'the checker');
+}
+
+/** The same through the built bundle, as users run it (`node bin/waveplan.js check …`). */
+export function runBundledChecker(files: readonly string[], root: string): Checked {
+  const run = spawnSync(process.execPath, [BIN, 'check', ...checkArgs(files, root)], { cwd: root, encoding: 'utf8', timeout: 60_000, maxBuffer: 64 << 20 });
+  if (run.status === null) return { files: [], exitCode: -1, problems: [`the bundled checker did not finish: ${run.signal ?? run.error?.message}`] };
+  return readReport(run.stdout, run.stderr, run.status, 'the bundled checker');
 }
 
 export interface CaseFile {
@@ -85,9 +109,9 @@ export interface CaseFile {
 
 /**
  * Writes the files, analyses each with analyze() on the text the disk gives back and checks them
- * all in one checker run; returns the problems and each analysis with the time it took.
+ * all in one checker run (and, when `bundled`, once more through the built bundle); returns the problems and each analysis with the time it took.
  */
-export function checkOnDisk(files: readonly CaseFile[], root: string): { problems: string[]; analyses: { file: string; analysis: Analysis; ms: number }[] } {
+export function checkOnDisk(files: readonly CaseFile[], root: string, bundled = false): { problems: string[]; analyses: { file: string; analysis: Analysis; ms: number }[] } {
   for (const f of files) saveBuffer(f.file, f.text);
   const problems: string[] = [];
   const analyses = files.map((f) => {
@@ -109,6 +133,12 @@ export function checkOnDisk(files: readonly CaseFile[], root: string): { problem
   for (const [i, a] of analyses.entries()) {
     if (!a || !checked.files[i]) continue;
     problems.push(...compareFindings('analyze()', a.analysis.diagnostics.map(findingOf), 'the checker', checked.files[i].findings));
+  }
+  if (bundled) {
+    const spawned = runBundledChecker(files.map((f) => f.file), root);
+    problems.push(...spawned.problems);
+    if (spawned.exitCode !== checked.exitCode) problems.push(`the bundled checker exits ${spawned.exitCode}, in process ${checked.exitCode}`);
+    for (const [i, f] of checked.files.entries()) if (spawned.files[i]) problems.push(...compareFindings('the checker', f.findings, 'the bundled checker', spawned.files[i].findings));
   }
   return { problems, analyses: analyses.filter((a) => a !== undefined) };
 }

@@ -6,7 +6,7 @@ export interface FuzzConfig {
   seed: number;
   /** Cases 0 … cases − 1: each a mutated file through the analysis and the checker. */
   cases: number;
-  /** Every this many cases (case 0, every, 2·every, …) also drive a language-server session. */
+  /** Of every this many cases, the first drives an editing session and the middle one a fixing session. */
   sessionEvery: number;
   /** Edits in one session. */
   edits: number;
@@ -52,3 +52,10 @@ export function replayCommand(config: FuzzConfig, n: number): string {
 
 /** True when case `n` is one to run in this configuration. */
 export const runsCase = (config: FuzzConfig, n: number): boolean => config.only === undefined || config.only === n;
+
+/** The server session case `n` drives, if any (see session.ts). */
+export function sessionKind(config: FuzzConfig, n: number): 'edits' | 'fixes' | undefined {
+  if (n % config.sessionEvery === 0) return 'edits';
+  if (config.sessionEvery > 1 && n % config.sessionEvery === Math.floor(config.sessionEvery / 2)) return 'fixes';
+  return undefined;
+}

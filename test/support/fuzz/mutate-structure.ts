@@ -3,18 +3,19 @@
 // many megabytes (the outputs repeated under new names, one flow line, a long comment or string).
 
 import { between, chance, int, pick, type Random } from './random';
-import { lineStarts, splice } from './tokens';
+import { lineStarts, splice, windowOf } from './tokens';
 
 /** Offsets just after "key: " on lines that have one: where a value starts. */
-function valueStarts(text: string): number[] {
-  return [...text.matchAll(/^[ \t-]*[^\s:#][^:#\r\n]*: ?/gm)].map((m) => m.index! + m[0].length);
+function valueStarts(text: string, r: Random): number[] {
+  const { part, base } = windowOf(text, r);
+  return [...part.matchAll(/^[ \t-]*[^\s:#][^:#\r\n]*: ?/gm)].map((m) => base + m.index! + m[0].length);
 }
 
 const DEPTHS = [20, 64, 100, 257, 1000, 5000, 20000];
 
 export function deepNesting(text: string, r: Random): string {
   const depth = pick(r, DEPTHS);
-  const starts = valueStarts(text);
+  const starts = valueStarts(text, r);
   const at = starts.length ? pick(r, starts) : text.length;
   const form = int(r, 4);
   let value: string;
@@ -51,13 +52,13 @@ export function aliasBomb(text: string, r: Random): string {
   }
   if (form === 2) {
     // An anchor on one value and aliases to it at other values (or to a missing anchor).
-    const values = valueStarts(text);
+    const values = valueStarts(text, r);
     if (values.length < 2) return text;
     let out = text;
     const anchorAt = pick(r, values);
     out = splice(out, anchorAt, 0, '&v ');
     for (let n = between(r, 1, 4); n > 0; n--) {
-      const at = pick(r, valueStarts(out));
+      const at = pick(r, valueStarts(out, r));
       const end = out.slice(at).search(/\r\n|\r|\n|$/);
       out = splice(out, at, end, chance(r, 0.8) ? '*v' : '*missing');
     }

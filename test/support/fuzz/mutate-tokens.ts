@@ -7,7 +7,7 @@ import { lineStarts, solidTokens, splice } from './tokens';
 export function deleteTokens(text: string, r: Random): string {
   let out = text;
   for (let n = between(r, 1, 3); n > 0; n--) {
-    const all = solidTokens(out);
+    const all = solidTokens(out, r);
     if (all.length === 0) break;
     const t = pick(r, all);
     out = splice(out, t.at, t.text.length, '');
@@ -16,7 +16,7 @@ export function deleteTokens(text: string, r: Random): string {
 }
 
 export function duplicateToken(text: string, r: Random): string {
-  const all = solidTokens(text);
+  const all = solidTokens(text, r);
   if (all.length === 0) return text + text;
   const t = pick(r, all);
   return splice(text, t.at, 0, t.text.repeat(between(r, 1, 3)));

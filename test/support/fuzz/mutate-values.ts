@@ -2,7 +2,7 @@
 // controls and astral characters; extreme and oddly written numbers; wrong, misspelt or missing units.
 
 import { chance, int, pick, type Random } from './random';
-import { solidTokens, splice } from './tokens';
+import { solidTokens, splice, windowOf } from './tokens';
 
 /** ASCII characters and a look-alike of each from another block (Cyrillic, full width, math signs). */
 const LOOKALIKES: Record<string, string[]> = {
@@ -38,7 +38,7 @@ const INSERTS = [
 ];
 
 export function unicode(text: string, r: Random): string {
-  const all = solidTokens(text);
+  const all = solidTokens(text, r);
   if (all.length === 0) return pick(r, INSERTS) + text;
   const t = pick(r, all);
   if (chance(r, 0.5)) {
@@ -62,7 +62,7 @@ export const ODD_NUMBERS = [
 ];
 
 export function oddNumber(text: string, r: Random): string {
-  const numbers = solidTokens(text).filter((t) => /^[+-]?\d/.test(t.text));
+  const numbers = solidTokens(text, r).filter((t) => /^[+-]?\d/.test(t.text));
   if (numbers.length === 0) return text;
   const t = pick(r, numbers);
   return splice(text, t.at, t.text.length, pick(r, ODD_NUMBERS));
@@ -72,10 +72,11 @@ const UNIT = /(\d)( ?)(GHz|MHz|kHz|Hz|mHz|ppm|ppb|ppt|ppq|%|Vpp|V|mV|B|KiB|MiB|k
 const OTHER_UNITS = ['GHz', 'MHz', 'kHz', 'Hz', 'mHz', 'MHZ', 'mhz', 'khz', 'KHz', 'Mhz', 'hz', 'rpm', 'ppm', 'ppb', '%', '‰', 'V', 'mV', 'Vpp', 'A', 'Ω', 'B', 'KiB', 'MiB', 'GiB', 'kB', 'ns', 'µs', 'μs', 'us', 's', 'dB', 'dBc', 'bits', 'K', '°C', 'Hz²', '1/s', 'kHz/s', 'M Hz', ''];
 
 export function wrongUnit(text: string, r: Random): string {
-  const found = [...text.matchAll(UNIT)];
+  const { part, base } = windowOf(text, r);
+  const found = [...part.matchAll(UNIT)];
   if (found.length === 0) return text;
   const m = pick(r, found);
-  const at = m.index! + m[1].length;
+  const at = base + m.index! + m[1].length;
   // Sometimes drop or double the space between number and unit as well.
   const space = pick(r, [m[2], m[2], '', '  ', '\t']);
   return splice(text, at, m[2].length + m[3].length, space + pick(r, OTHER_UNITS));

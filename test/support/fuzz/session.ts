@@ -70,14 +70,22 @@ export interface SessionResult {
   fixes: number;
 }
 
-export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzCase, root: string, tally: Tally): Promise<SessionResult> {
-  const r = caseRandom(config.seed, c.n, 1);
+/**
+ * An editing session (`edits`): the case's text, `config.edits` edits, mostly back to the seed at
+ * the end. A fixing session (`fixes`): the seed with one mild change, no edits, every quick fix.
+ */
+export type SessionKind = 'edits' | 'fixes';
+
+export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzCase, root: string, tally: Tally, kind: SessionKind = 'edits'): Promise<SessionResult> {
+  const r = caseRandom(config.seed, c.n, kind === 'edits' ? 1 : 2);
   const problems: string[] = [];
-  const file = path.join(c.seed.folder, `fuzz-session-${c.n}.${c.seed.kind}.yaml`);
+  const file = path.join(c.seed.folder, `fuzz-${kind}-${c.n}.${c.seed.kind}.yaml`);
   const uri = uriOf(file);
   const logsBefore = client.logs.length;
-  let doc = TextDocument.create(uri, 'yaml', 1, c.text);
-  client.open(uri, c.text, 1);
+  const start = kind === 'edits' ? c.text : mutateMildly(c.seed.text, r).text;
+  const edits = kind === 'edits' ? config.edits : 0;
+  let doc = TextDocument.create(uri, 'yaml', 1, start);
+  client.open(uri, start, 1);
   const pending: Promise<void>[] = [];
   let lastDiagnostics: LspDiagnostic[] = [];
 
@@ -106,7 +114,7 @@ export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzC
     );
   };
 
-  for (let e = 0; e < config.edits; e++) {
+  for (let e = 0; e < edits; e++) {
     const next = mutate(doc.getText(), r, 1).text;
     const version = doc.version + 1;
     if (chance(r, 0.1)) {
@@ -125,7 +133,7 @@ export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzC
   }
   // Most sessions end back on their seed with one mild change, so the final check and the quick
   // fixes meet plans and not only broken YAML.
-  if (chance(r, 0.7)) {
+  if (kind === 'edits' && chance(r, 0.7)) {
     const version = doc.version + 1;
     const edit = rangedEdit(doc, mutateMildly(c.seed.text, r).text);
     client.edit(uri, version, edit.range, edit.text);
@@ -158,7 +166,7 @@ export async function runSession(client: LspClient, config: FuzzConfig, c: FuzzC
   const failed = client.logs.slice(logsBefore).filter((m) => /failed/.test(m));
   problems.push(...failed.map((m) => `server log: ${m.slice(0, 400)}`));
   if (!client.alive) problems.push(`the server exited: ${client.serverStderr.slice(-500)}`);
-  return { problems, edits: config.edits, fixes };
+  return { problems, edits, fixes };
 }
 
 /** Asks for the quick fixes of every diagnostic and applies each to the text (test/support/fuzz/fix-check.ts). */

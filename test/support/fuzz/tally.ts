@@ -15,6 +15,9 @@ export class Tally {
   slowestRequest: Slowest = { what: 'none', ms: 0 };
   slowestAnalysis: Slowest = { what: 'none', ms: 0 };
   rss: { start?: number; end?: number } = {};
+  /** The session after which the server's RSS rose most, and by how much (KiB). */
+  rssRise: { n: number; kib: number; what: string } = { n: -1, kib: 0, what: '' };
+  private lastRss: number | undefined;
   private readonly failedCases = new Set<number>();
 
   constructor(readonly config: FuzzConfig) {}
@@ -37,6 +40,14 @@ export class Tally {
     if (ms > this.slowestRequest.ms) this.slowestRequest = { what, ms };
   }
 
+  /** The server's RSS after session `n` (KiB), to find the session that grew it most. */
+  rssAfter(n: number, kib: number | undefined, what: string): void {
+    if (kib === undefined) return;
+    const before = this.lastRss ?? this.rss.start ?? kib;
+    if (kib - before > this.rssRise.kib) this.rssRise = { n, kib: kib - before, what };
+    this.lastRss = kib;
+  }
+
   analysis(what: string, ms: number): void {
     if (ms > this.slowestAnalysis.ms) this.slowestAnalysis = { what, ms };
   }
@@ -54,7 +65,7 @@ export class Tally {
     return [
       `fuzz: seed ${this.config.seed}, ${this.counts.cases ?? 0} cases, ${this.failedCaseCount} failing cases (${this.failures.length} failures), wall ${(wallMs / 1000).toFixed(1)} s`,
       `fuzz: slowest request ${this.slowestRequest.what} ${this.slowestRequest.ms.toFixed(0)} ms; slowest checker file ${this.slowestAnalysis.what} ${this.slowestAnalysis.ms.toFixed(0)} ms`,
-      `fuzz: server RSS ${mib(this.rss.start)} at start, ${mib(this.rss.end)} at end`,
+      `fuzz: server RSS ${mib(this.rss.start)} at start, ${mib(this.rss.end)} at end; largest rise ${mib(this.rssRise.kib)} in case ${this.rssRise.n} (${this.rssRise.what})`,
       `fuzz: ${counts}`,
     ].join('\n');
   }
