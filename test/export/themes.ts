@@ -1,9 +1,11 @@
 // The hosts the report page is shown in, for the theme tests: a plain browser with either colour
 // preference, and the editor's webview under each kind of theme. The editor marks <body> with the
-// theme's kind and sets the theme's colours as --vscode-* variables on <html>, after a default
-// stylesheet of its own; the values below are representative of the editor's built-in themes
-// (`from memory`, not read from a running editor), enough to show the page takes the editor's
-// colours where it has them and keeps readable ones where it has not.
+// theme's kind, sets the theme's colours as --vscode-* variables on <html> and puts a default
+// stylesheet of its own (in a cascade layer) before the page's. The values below were read from
+// the webview of the report panel in VS Code 1.139 (code-server 4.139.1, the editor of test/e2e/)
+// under its built-in themes Default Light Modern, Default Dark Modern, Default High Contrast and
+// Default High Contrast Light; the stylesheet is the part of the editor's that touches this page.
+// In that editor `prefers-color-scheme` stayed light under every theme, so the body class decides.
 
 export interface Host {
   name: string;
@@ -16,16 +18,19 @@ export interface Host {
   dark: boolean;
 }
 
-/** The editor's own stylesheet for webviews, placed before the page's (`from memory`, abridged). */
+/** The editor's own stylesheet for webviews, placed before the page's (the rules that touch it). */
 export const WEBVIEW_DEFAULT_CSS = `
-body { background-color: transparent; color: var(--vscode-editor-foreground); font-family: var(--vscode-font-family);
-  font-size: var(--vscode-font-size); margin: 0; padding: 0 20px; }
-img, video { max-width: 100%; max-height: 100%; }
-a, a code { color: var(--vscode-textLink-foreground); }
-code { color: var(--vscode-textPreformat-foreground); }
+@layer vscode-default {
+  body { background-color: transparent; color: var(--vscode-editor-foreground); font-family: var(--vscode-font-family);
+    font-size: var(--vscode-font-size); margin: 0; padding: 0 20px; }
+  img, video { max-width: 100%; max-height: 100%; }
+  a, a code { color: var(--vscode-textLink-foreground); }
+  code { color: var(--vscode-textPreformat-foreground); background-color: var(--vscode-textPreformat-background);
+    padding: 1px 3px; border-radius: 4px; }
+}
 `;
 
-const FONT = { '--vscode-font-family': 'sans-serif', '--vscode-font-size': '13px' };
+const FONT = { '--vscode-font-family': 'system-ui, "Ubuntu", "Droid Sans", sans-serif', '--vscode-font-size': '13px' };
 
 export const HOSTS: Host[] = [
   { name: 'browser, light preference', colorScheme: 'light', dark: false },
@@ -39,11 +44,12 @@ export const HOSTS: Host[] = [
     vars: {
       ...FONT,
       '--vscode-editor-background': '#ffffff',
-      '--vscode-editor-foreground': '#000000',
-      '--vscode-descriptionForeground': '#717171',
-      '--vscode-textLink-foreground': '#006ab1',
-      '--vscode-textPreformat-foreground': '#a31515',
-      '--vscode-panel-border': 'rgba(128, 128, 128, 0.35)',
+      '--vscode-editor-foreground': '#3b3b3b',
+      '--vscode-descriptionForeground': '#3b3b3b',
+      '--vscode-textLink-foreground': '#005fb8',
+      '--vscode-textPreformat-foreground': '#3b3b3b',
+      '--vscode-textPreformat-background': 'rgba(0, 0, 0, 0.12)',
+      '--vscode-panel-border': '#e5e5e5',
       '--vscode-editorError-foreground': '#e51400',
       '--vscode-editorWarning-foreground': '#bf8803',
     },
@@ -55,12 +61,13 @@ export const HOSTS: Host[] = [
     dark: true,
     vars: {
       ...FONT,
-      '--vscode-editor-background': '#1e1e1e',
-      '--vscode-editor-foreground': '#d4d4d4',
-      '--vscode-descriptionForeground': 'rgba(204, 204, 204, 0.7)',
-      '--vscode-textLink-foreground': '#3794ff',
-      '--vscode-textPreformat-foreground': '#d7ba7d',
-      '--vscode-panel-border': 'rgba(128, 128, 128, 0.35)',
+      '--vscode-editor-background': '#1f1f1f',
+      '--vscode-editor-foreground': '#cccccc',
+      '--vscode-descriptionForeground': '#9d9d9d',
+      '--vscode-textLink-foreground': '#4daafc',
+      '--vscode-textPreformat-foreground': '#d0d0d0',
+      '--vscode-textPreformat-background': '#3c3c3c',
+      '--vscode-panel-border': '#2b2b2b',
       '--vscode-editorError-foreground': '#f14c4c',
       '--vscode-editorWarning-foreground': '#cca700',
     },
@@ -76,7 +83,7 @@ export const HOSTS: Host[] = [
       '--vscode-editor-foreground': '#ffffff',
       '--vscode-descriptionForeground': 'rgba(255, 255, 255, 0.7)',
       '--vscode-textLink-foreground': '#21a6ff',
-      '--vscode-textPreformat-foreground': '#d7ba7d',
+      '--vscode-textPreformat-foreground': '#ffffff',
       '--vscode-panel-border': '#6fc3df',
       '--vscode-contrastBorder': '#6fc3df',
       '--vscode-editorError-foreground': '#f48771',
@@ -86,7 +93,7 @@ export const HOSTS: Host[] = [
   {
     name: 'editor, high contrast light',
     colorScheme: 'dark',
-    bodyClass: 'vscode-high-contrast vscode-high-contrast-light',
+    bodyClass: 'vscode-high-contrast-light vscode-high-contrast',
     dark: false,
     vars: {
       ...FONT,
@@ -94,7 +101,8 @@ export const HOSTS: Host[] = [
       '--vscode-editor-foreground': '#292929',
       '--vscode-descriptionForeground': 'rgba(41, 41, 41, 0.7)',
       '--vscode-textLink-foreground': '#0f4a85',
-      '--vscode-textPreformat-foreground': '#a31515',
+      '--vscode-textPreformat-foreground': '#ffffff',
+      '--vscode-textPreformat-background': '#09345f',
       '--vscode-panel-border': '#0f4a85',
       '--vscode-contrastBorder': '#0f4a85',
       '--vscode-editorError-foreground': '#b5200d',

@@ -32,7 +32,7 @@ ul.findings { list-style:none; padding:0; margin:0; font-size:13px; }
 ul.findings li { padding:4px 8px; border-left:4px solid var(--muted); margin:3px 0; background:var(--card); }
 ul.findings li.error { border-color:var(--error-edge); }
 ul.findings li.warning { border-color:var(--warning-edge); }
-ul.findings code { font-size:12px; color:var(--muted); }
+ul.findings code { font-size:12px; color:var(--muted); background:none; padding:0; }
 .none { color:var(--muted); font-style:italic; }
 article.output { margin-top:16px; padding:10px 14px 12px; background:var(--card); border:1px solid var(--rule); border-radius:6px; }
 article.output h4 { margin:0 0 6px; font-size:15px; }
