@@ -241,7 +241,8 @@ export function startServer(): void {
     guard(log, 'symbols', [], (params) => {
       const at = snapshot(params.textDocument.uri);
       if (!at) return [];
-      return at.analysis.kind === 'wave' ? waveSymbols(at.analysis) : clockSymbols(at.doc, syntaxOf(at.analysis));
+      const tree = syntaxOf(at.analysis);
+      return at.analysis.kind === 'wave' ? waveSymbols(at.doc, at.analysis, tree, docs.isPartial(at.doc)) : clockSymbols(at.doc, at.analysis, tree);
     }),
   );
 

@@ -47,5 +47,17 @@ export function splitTree(seg: Segments): SyntaxTree {
         valueEnd: k.key === 'outputs' ? seg.tailStart : frameToFile(k.valueEnd),
       }));
     },
+    // Every piece is an entry, one that does not parse alone or is half typed (`keyed: false`) too:
+    // its key is its first line as written up to a colon, and it ends where its last line with content does.
+    outputEntries() {
+      return seg.pieces.map((piece) => {
+        const first = piece.text.split(/[\r\n]/, 1)[0];
+        const indent = first.length - first.trimStart().length;
+        const start = piece.start + indent;
+        const key = piece.keyed ? piece.name : first.slice(indent).replace(/:(?:\s.*)?$/, '').trimEnd().slice(0, 64);
+        const end = start + key.length;
+        return { key, start, end, valueEnd: Math.max(end, piece.start + piece.text.trimEnd().length) };
+      });
+    },
   };
 }

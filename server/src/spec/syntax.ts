@@ -33,6 +33,11 @@ export interface SyntaxTree {
   nodeAt(offset: number): NodeAtCursor | undefined;
   /** The top-level keys in file order. */
   topLevel(): TopLevelKey[];
+  /**
+   * A wave spec's output entries in file order, those that do not parse included where the tree
+   * still holds them (the outline lists every one); `key` is the name as written.
+   */
+  outputEntries(): TopLevelKey[];
 }
 
 function inside(node: Node | null | undefined, offset: number): node is Node {
@@ -78,16 +83,26 @@ export function nodeInDocument(tree: Document, text: string, offset: number): No
   return undefined;
 }
 
-export function topLevelOf(tree: Document | null): TopLevelKey[] {
-  const root = tree?.contents as Node | null | undefined;
-  if (!isMap(root)) return [];
+/** The keys of a mapping node in order, with where each key and its value end. */
+function keysOf(map: Node | null | undefined): TopLevelKey[] {
+  if (!isMap(map)) return [];
   const out: TopLevelKey[] = [];
-  for (const pair of root.items) {
+  for (const pair of map.items) {
     if (!isPair(pair) || !isScalar(pair.key) || !pair.key.range) continue;
     const [start, end] = pair.key.range;
-    out.push({ key: String(pair.key.value), start, end, valueEnd: (pair.value as Node | null)?.range?.[1] ?? end });
+    out.push({ key: String(pair.key.value), start, end, valueEnd: Math.max(end, (pair.value as Node | null)?.range?.[1] ?? end) });
   }
   return out;
+}
+
+export const topLevelOf = (tree: Document | null): TopLevelKey[] => keysOf(tree?.contents as Node | null | undefined);
+
+/** The entries under a document's `outputs:` key. */
+export function outputEntriesOf(tree: Document | null): TopLevelKey[] {
+  const root = tree?.contents as Node | null | undefined;
+  if (!isMap(root)) return [];
+  const outputs = root.items.find((p) => isPair(p) && isScalar(p.key) && p.key.value === 'outputs');
+  return keysOf(outputs?.value as Node | null | undefined);
 }
 
 /** A tree over one document whose offsets are the file's. */
@@ -95,6 +110,7 @@ export function documentTree(tree: Document | null, text: string): SyntaxTree {
   return {
     nodeAt: (offset) => (tree ? nodeInDocument(tree, text, offset) : undefined),
     topLevel: () => topLevelOf(tree),
+    outputEntries: () => outputEntriesOf(tree),
   };
 }
 
