@@ -80,8 +80,20 @@ export function cardBody(output: OutputAnalysis): string {
   if (alt && planning.plan && !planning.plan.jitterFree) {
     lines.push('', `Nearest jitter-free plan: ${formatHz(alt.achievedHz)} (${formatPpm(alt.errorPpm)}), ${formatDivider(alt)}, N = ${alt.tableLength}, M = ${formatCycles(alt.cycles)}.`);
   }
+  const fromFile = sampleFileLine(output);
+  if (fromFile) lines.push('', fromFile);
   lines.push(...stepsTable(output));
   return lines.join('\n');
+}
+
+/** Whether the table plays an output's sample file sample for sample (S = K) or resampled. */
+function sampleFileLine(output: OutputAnalysis): string | undefined {
+  const values = output.request.waveform.custom?.samples?.length;
+  const plan = output.planning.plan;
+  if (!values || !plan) return undefined;
+  const s = plan.tableLength / toNumber(plan.cycles);
+  const how = s === values ? 'the table plays it sample for sample (S = K)' : `the table resamples it at S = ${Number(s.toPrecision(6))} by linear interpolation (no plan with S = K meets the tolerance, or max-samples-per-cycle rules it out)`;
+  return `Waveform from its sample file: one cycle of K = ${values} values; ${how}.`;
 }
 
 export function memoryLine(analysis: Analysis): string | undefined {

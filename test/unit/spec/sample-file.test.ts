@@ -4,6 +4,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { exportModel } from '../../../server/src/export/model';
+import { outputCard } from '../../../server/src/lsp/plan-card';
 import { analyze, analyzeWhole } from '../../../server/src/spec/analyze';
 
 const clock = 'system-clock: 125 MHz\ndivider:\n  integer: { min: 1, max: 65535 }\ndac:\n  bits: 12\n  sample-bytes: 2\n  full-scale: 3.3 V\n  max-sample-rate: 12.5 MHz\nmemory:\n  budget: 24 KiB\n  table-length: { min: 16, max: 16384 }\n';
@@ -83,6 +84,11 @@ describe('sample-file: through the spec layer', () => {
     const capped = analyze('/w/r.wave.yaml', spec('    max-samples-per-cycle: 50\n'), hostWith({ '/w/cycle.csv': ramp(100) }).host);
     const p = capped.outputs[0]!.planning.plan!;
     expect(p.tableLength / Number(p.cycles.num)).toBeLessThanOrEqual(50);
+    // The plan card says which: the file as it is, or resampled.
+    expect(outputCard(capped.outputs[0]!)).toContain('resamples it at S = ');
+    const exact = analyze('/w/r.wave.yaml', spec(), hostWith({ '/w/cycle.csv': ramp(100) }).host);
+    expect(outputCard(exact.outputs[0]!)).toContain('K = 100 values; the table plays it sample for sample (S = K)');
+    expect(outputCard(exact.outputs[1]!)).not.toContain('sample file');
   });
 
   it('on another shape it is unused-key and the file does not make the table; with harmonics, harmonics is unused-key', () => {
