@@ -30,7 +30,9 @@ beforeAll(async () => {
   ensureBuilt();
   checkerWs = fuzzWorkspace('fuzz-check');
   serverWs = fuzzWorkspace('fuzz-lsp');
-  client = await LspClient.start({ folders: [serverWs.dir] });
+  // FUZZ_PROF=<folder>: the server writes a V8 CPU profile there, to see where a slow request went.
+  const profile = process.env.FUZZ_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.FUZZ_PROF}`] : [];
+  client = await LspClient.start({ nodeArgs: profile, folders: [serverWs.dir] });
   tally.rss.start = rssKib(client.process.pid);
 });
 

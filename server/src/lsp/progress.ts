@@ -21,7 +21,7 @@ export class SlowProgress {
 
   report(p: Progress): void {
     if (!this.factory || this.closed || performance.now() - this.started < SHOW_AFTER_MS) return;
-    const message = `${this.file}: ${p.planned} of ${p.total} outputs planned`;
+    const message = p.total > 0 ? `${this.file}: ${p.planned} of ${p.total} outputs planned` : `${this.file}: reading`;
     const percentage = p.total > 0 ? Math.floor((100 * p.planned) / p.total) : 0;
     if (!this.reporter) {
       this.reporter = this.factory().then(

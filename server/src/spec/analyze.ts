@@ -77,8 +77,14 @@ interface Read {
   diagnostics: SpecDiagnostic[];
 }
 
-function read(kind: FileKind, text: string): Read & { quantities?: ReturnType<typeof readQuantities>['quantities'] } {
-  const src = readSource(text, kind === 'wave' ? WAVE_OUTPUTS : undefined);
+type Reading = Read & { quantities?: ReturnType<typeof readQuantities>['quantities'] };
+
+function read(kind: FileKind, text: string): Reading {
+  return readParsed(kind, readSource(text, kind === 'wave' ? WAVE_OUTPUTS : undefined));
+}
+
+/** The schema and the quantities of a parsed file. */
+function readParsed(kind: FileKind, src: ReturnType<typeof readSource>): Reading {
   const diagnostics = [...src.diagnostics];
   if (!src.doc) return { src, diagnostics };
   diagnostics.push(...validate(kind, src.doc, src.lines, src.data));
@@ -119,7 +125,12 @@ function* splitReading(analysis: Analysis, steps: WaveSteps): Generator<Progress
 
 /** The whole file read at once: every wave spec gives this analysis, however it is laid out. */
 function* analyzeWaveWhole(analysis: Analysis, host: SpecHost): Generator<Progress, void> {
-  const { src, diagnostics, quantities } = read('wave', analysis.text);
+  // A large file's parse and its schema and quantity checks each take a while: other messages
+  // are let in between them (the editor's requests answer from the analysis so far).
+  const parsed = readSource(analysis.text, WAVE_OUTPUTS);
+  yield { planned: 0, total: 0 };
+  const { src, diagnostics, quantities } = readParsed('wave', parsed);
+  yield { planned: 0, total: 0 };
   analysis.diagnostics = diagnostics;
   setSyntax(analysis, documentTree(src.tree, analysis.text));
   const doc = src.doc;
@@ -139,10 +150,11 @@ function* analyzeWaveWhole(analysis: Analysis, host: SpecHost): Generator<Progre
   let usedBytes = 0;
   const steps = stepsPerOutput(Math.min(names.length, MAX_OUTPUTS));
   const planning = names.slice(0, MAX_OUTPUTS);
+  // Outputs with an error of their own are not planned (one pass over the findings, not one per output).
+  const blocked = new Set(diagnostics.filter((d) => d.severity === 'error' && d.code !== 'duplicate-output').map((d) => d.output));
   for (const [index, name] of planning.entries()) {
     const entry = (data.outputs as Record<string, unknown> | undefined)?.[name];
-    const blocked = diagnostics.some((d) => d.output === name && d.severity === 'error' && d.code !== 'duplicate-output');
-    if (blocked || !outputSchema.safeParse(entry).success) continue;
+    if (blocked.has(name) || !outputSchema.safeParse(entry).success) continue;
     const samples = resolveSamples(analysis, (entry as OutputEntry)['sample-file'], host);
     const planned = planEntry(name, entry as OutputEntry, quantities, hardware, doc, src.lines, steps, samples);
     diagnostics.push(...planned.diagnostics);

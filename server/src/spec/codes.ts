@@ -15,7 +15,7 @@ export const CODES = {
   'file-too-large': {
     severity: 'error',
     title: 'File too large',
-    help: 'The file is larger than waveplan reads (1 MB); a spec is a few kilobytes. Check that the right file is named, or split it.',
+    help: 'The file is larger than waveplan reads (256 KiB of text); a spec is a few kilobytes. Check that the right file is named, or split it.',
   },
   'too-complex': {
     severity: 'error',

@@ -7,6 +7,7 @@
 
 import * as nodePath from 'node:path';
 import { formatFileSize } from '../../../shared-schema/src/quantity-format';
+import { MAX_FILE_CHARS, MAX_FILE_TEXT } from './source';
 
 export type FileKind = 'file' | 'directory' | 'symbolic link' | 'FIFO (named pipe)' | 'character device' | 'block device' | 'socket' | 'special file';
 
@@ -40,11 +41,11 @@ export interface FileSystem {
 }
 
 /**
- * Bytes read from one spec at most. The spec layer refuses more than 1 Mi UTF-16 code units, and
- * UTF-8 takes at most 3 bytes per code unit, so a file above 3 MiB could never be read; its real
- * size is reported instead of reading it.
+ * Bytes read from one spec at most. The spec layer refuses more than MAX_FILE_CHARS UTF-16 code
+ * units, and UTF-8 takes at most 3 bytes per code unit, so a larger file could never be read; its
+ * real size is reported instead of reading it.
  */
-export const MAX_SPEC_BYTES = 3 * 1024 * 1024;
+export const MAX_SPEC_BYTES = 3 * MAX_FILE_CHARS;
 
 export type RefusalCode = 'missing' | 'outside-workspace' | 'not-regular' | 'too-large' | 'unreadable';
 
@@ -145,7 +146,7 @@ export class ContainedReader {
     const { facts, bytes } = opened;
     if (facts.kind !== 'file') return { refused: { code: 'not-regular', reason: `it is a ${facts.kind}, not a regular file` } };
     if (facts.size > this.maxBytes || !bytes) {
-      return { refused: { code: 'too-large', reason: `it is ${formatFileSize(facts.size)}, more than waveplan reads from one file (a spec holds at most 1 MiB of text; a sample file at most ${formatFileSize(this.maxBytes)})`, size: facts.size } };
+      return { refused: { code: 'too-large', reason: `it is ${formatFileSize(facts.size)}, more than waveplan reads from one file (a spec holds at most ${MAX_FILE_TEXT} of text; a sample file at most ${formatFileSize(this.maxBytes)})`, size: facts.size } };
     }
     return { text: new TextDecoder('utf-8').decode(bytes), real: where.real, facts };
   }

@@ -10,7 +10,15 @@ import { forYaml, lineStarts } from './line-breaks';
 import type { Position, Range, SpecDiagnostic } from './types';
 
 /** A spec is a few kilobytes; the YAML parser needs about a second per megabyte on a slow machine. */
-export const MAX_FILE_CHARS = 1024 * 1024;
+/**
+ * UTF-16 code units of one spec at most. A spec of the most outputs a file plans (500) is about
+ * 50 KB; reading 256 Ki of text (parse, schema, quantities) takes about half a second on a loaded
+ * 2-core machine, which keeps every editor request behind it under a second (the fuzz harness's
+ * files just under the limit measure it). At 1 Mi the same work took 2 s.
+ */
+export const MAX_FILE_CHARS = 256 * 1024;
+/** The limit as messages say it. */
+export const MAX_FILE_TEXT = `${MAX_FILE_CHARS / 1024} KiB`;
 /** A spec nests four levels; 32 leaves room and stays far from the parser's stack limit. */
 export const MAX_DEPTH = 32;
 export const MAX_ALIAS_COUNT = 100;
@@ -164,7 +172,7 @@ let lastWave: { original: string; source: Source } | undefined;
  * would be saved, the checker's file as it is on disk), so both faces say the same.
  */
 export function tooLargeMessage(bytes: number): string {
-  return `The file is ${formatFileSize(bytes)}, more than a spec can be (waveplan reads at most 1 MiB of text): check that this is the spec you meant.`;
+  return `The file is ${formatFileSize(bytes)}, more than a spec can be (waveplan reads at most ${MAX_FILE_TEXT} of text): check that this is the spec you meant.`;
 }
 
 /** Parses a spec's text; never throws. `isOutputs` tells which mapping holds output names. */

@@ -101,6 +101,8 @@ export function* analyzeWaveFastSteps(analysis: Analysis, steps: WaveSteps): Gen
     if (readings.length % 8 === 0) yield { planned: 0, total: seg.pieces.length };
   }
   const exact = exactFrame !== null && readings.every((r) => r.ok);
+  // Where a piece does not read, the whole file is parsed too: let other work in first.
+  if (!exact) yield { planned: 0, total: seg.pieces.length };
   const wholeSyntax = exact ? undefined : brokenYaml(text);
   if (!exact && !wholeSyntax) return false;
   const frame = exactFrame ?? frameSyntax(seg.frameText);

@@ -2,6 +2,8 @@
 // cores); `npm run fuzz` sets FUZZ_RUN=long, and FUZZ_CASES / FUZZ_SEED / FUZZ_ONLY choose a run
 // or replay one case of it.
 
+import { MAX_FILE_CHARS } from '../../../server/src/spec/source';
+
 export interface FuzzConfig {
   seed: number;
   /** Cases 0 … cases − 1: each a mutated file through the analysis and the checker. */
@@ -19,7 +21,6 @@ export interface FuzzConfig {
   long: boolean;
 }
 
-const MIB = 1024 * 1024;
 
 function intFrom(name: string, fallback: number): number {
   const raw = process.env[name];
@@ -39,7 +40,7 @@ export function fuzzConfig(): FuzzConfig {
     sessionEvery: intFrom('FUZZ_SESSION_EVERY', 10),
     edits: intFrom('FUZZ_EDITS', long ? 24 : 12),
     bigEvery: intFrom('FUZZ_BIG_EVERY', 200),
-    bigSizes: [MIB - 4096, Math.round(bigMb * 1e6)],
+    bigSizes: [MAX_FILE_CHARS - 4096, Math.round(bigMb * 1e6)],
     only,
     long,
   };

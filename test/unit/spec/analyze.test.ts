@@ -117,12 +117,13 @@ describe('cross-file resolution', () => {
 describe('inputs built here', () => {
   const wave = (body: string) => analyze(join(GOOD, 'built.wave.yaml'), `clock: ./bench.clock.yaml\n${body}`, diskHost);
 
-  it('a file over 1 MB gives one file-too-large diagnostic and is not parsed', () => {
+  it('a file over the limit (256 KiB of text) gives one file-too-large diagnostic and is not parsed', () => {
     const big = `clock: ./bench.clock.yaml\n# ${'x'.repeat(1024 * 1024)}\n`;
     const a = analyze(join(GOOD, 'big.wave.yaml'), big, diskHost);
     expect(a.diagnostics.map((d) => [d.code, d.severity])).toEqual([['file-too-large', 'error']]);
     expect(a.diagnostics[0].range).toEqual({ start: { line: 0, character: 0 }, end: { line: 0, character: 0 } });
-    expect(MAX_FILE_CHARS).toBe(1024 * 1024);
+    expect(MAX_FILE_CHARS).toBe(256 * 1024);
+    expect(a.diagnostics[0].message).toMatch(/^The file is 1\.0 MiB \(\d+ bytes\), more than a spec can be \(waveplan reads at most 256 KiB of text\)/);
   });
 
   it('a file just under the limit is read in bounded time', () => {

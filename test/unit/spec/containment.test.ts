@@ -81,7 +81,7 @@ describe('ContainedReader', () => {
   it('refuses a file above the limit with its size, without bytes', () => {
     const { fs } = fakeFs({ '/ws/big.wave.yaml': { kind: 'file', text: 'x'.repeat(100) } });
     expect(new ContainedReader(fs, ['/ws'], 99).read('/ws/big.wave.yaml')).toEqual({
-      refused: { code: 'too-large', size: 100, reason: 'it is 100 bytes, more than waveplan reads from one file (a spec holds at most 1 MiB of text; a sample file at most 99 bytes)' },
+      refused: { code: 'too-large', size: 100, reason: 'it is 100 bytes, more than waveplan reads from one file (a spec holds at most 256 KiB of text; a sample file at most 99 bytes)' },
     });
   });
 
