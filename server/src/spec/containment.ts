@@ -7,7 +7,7 @@
 
 import * as nodePath from 'node:path';
 import { formatFileSize } from '../../../shared-schema/src/quantity-format';
-import { MAX_FILE_CHARS, MAX_FILE_TEXT } from './source';
+import { MAX_FILE_TEXT } from './source';
 
 export type FileKind = 'file' | 'directory' | 'symbolic link' | 'FIFO (named pipe)' | 'character device' | 'block device' | 'socket' | 'special file';
 
@@ -41,11 +41,11 @@ export interface FileSystem {
 }
 
 /**
- * Bytes read from one spec at most. The spec layer refuses more than MAX_FILE_CHARS UTF-16 code
- * units, and UTF-8 takes at most 3 bytes per code unit, so a larger file could never be read; its
- * real size is reported instead of reading it.
+ * Bytes read from one spec at most. The spec layer refuses more than MAX_FILE_CHARS of text, but a
+ * file up to 3 MiB is still read, so the checker states its size from the text as the editor does
+ * (a byte order mark is not text); a larger file's size on disk is reported without reading it.
  */
-export const MAX_SPEC_BYTES = 3 * MAX_FILE_CHARS;
+export const MAX_SPEC_BYTES = 3 * 1024 * 1024;
 
 export type RefusalCode = 'missing' | 'outside-workspace' | 'not-regular' | 'too-large' | 'unreadable';
 
