@@ -157,7 +157,9 @@ export class ScanN {
     const least = minCycles(d, n);
     if (d.jMax - d.jMin + 1 <= top - least + 1) {
       for (let j = d.jMin; j <= d.jMax && this.budget.take(); j++) {
-        const m0 = Math.floor(y * j);
+        // Kept within a step of [least, top]: the clamp below gives the same M, and a value near
+        // 2^53 (a target far off the clock's range) would stop m++ from moving.
+        const m0 = Math.min(Math.max(Math.floor(y * j), least - 2), top + 1);
         let last = 0;
         for (let m = m0 - 1; m <= m0 + 2; m++) {
           const mc = Math.min(Math.max(m, least), top);
@@ -169,7 +171,9 @@ export class ScanN {
     }
     for (let m = least; m <= top && this.budget.take(); m++) {
       // For fixed N and M the error falls then rises in J: floor or ceil of M/y is best.
-      const j0 = Math.floor(m / y);
+      // Kept within a step of [J min, J max], for the same reason as M above: a tiny target makes
+      // M/y reach 2^53, where j++ no longer moves, and the loop never ended.
+      const j0 = Math.min(Math.max(Math.floor(m / y), d.jMin - 2), d.jMax + 1);
       let last = 0;
       for (let j = j0 - 1; j <= j0 + 2; j++) {
         const jc = Math.min(Math.max(j, d.jMin), d.jMax);
