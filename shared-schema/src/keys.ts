@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { clockSchema } from './clock-schema';
 import { waveSchema } from './wave-schema';
 import { type QuantityKind, type BaseUnit, describeKind, plainUnitOf, unitsOf } from './quantity';
-import { type QuantityMeta, defaultTextRegistry, quantityRegistry } from './schema-kit';
+import { type QuantityMeta, defaultTextRegistry, quantityRegistry, shapesRegistry } from './schema-kit';
 
 export type FileKind = 'wave' | 'clock';
 
@@ -33,6 +33,8 @@ export interface KeyInfo {
   children: string[];
   /** A list's items: what each one is. */
   items?: KeyInfo;
+  /** The waveform shapes the key applies to, when not every shape (see `appliesTo`). */
+  shapes?: readonly string[];
 }
 
 export const schemaOf = (kind: FileKind): z.ZodType => (kind === 'clock' ? clockSchema : waveSchema);
@@ -79,6 +81,8 @@ function describe(declared: z.ZodType, path: readonly (string | number)[], pathT
     required: defOf(declared).type !== 'optional',
     children: [],
   };
+  const shapes = shapesRegistry.get(declared) ?? shapesRegistry.get(inner);
+  if (shapes) info.shapes = shapes.shapes;
   const derived = defaultTextRegistry.get(declared);
   if (meta?.default !== undefined) info.default = String(meta.default);
   else if (derived) {
@@ -133,9 +137,17 @@ export function lookupKey(kind: FileKind, given: readonly (string | number)[]): 
   return describe(declared, path, pathText(normalise(kind, path)));
 }
 
-/** The keys an object at `path` accepts (completion, "did you mean"); [] when it is not an object. */
-export function childKeys(kind: FileKind, path: readonly (string | number)[]): string[] {
-  return lookupKey(kind, path)?.children ?? [];
+/**
+ * The keys an object at `path` accepts (completion, "did you mean"); [] when it is not an object.
+ * With `shape` (an output's, as written), only the keys that apply to that shape.
+ */
+export function childKeys(kind: FileKind, path: readonly (string | number)[], shape?: string): string[] {
+  const keys = lookupKey(kind, path)?.children ?? [];
+  if (shape === undefined) return keys;
+  return keys.filter((key) => {
+    const shapes = lookupKey(kind, [...path, key])?.shapes;
+    return !shapes || shapes.includes(shape);
+  });
 }
 
 /** Every key of a file kind, depth first in schema order, for the generated reference. */
@@ -152,4 +164,17 @@ export function listKeys(kind: FileKind): KeyInfo[] {
   };
   visit([]);
   return out;
+}
+
+let outputShapes: ReadonlyMap<string, readonly string[]> | undefined;
+
+/** The output keys that apply to some shapes only, with those shapes (read once from the schema). */
+export function shapeLimitedKeys(): ReadonlyMap<string, readonly string[]> {
+  outputShapes ??= new Map(
+    childKeys('wave', ['outputs', '*']).flatMap((key) => {
+      const shapes = lookupKey('wave', ['outputs', '*', key])?.shapes;
+      return shapes ? [[key, shapes] as const] : [];
+    }),
+  );
+  return outputShapes;
 }

@@ -51,3 +51,14 @@ export function optionalDerived<T extends z.ZodType>(schema: T, description: str
 
 /** A whole number within bounds (counts, bits, table lengths). */
 export const whole = (min: number, max: number) => z.number().int().min(min).max(max);
+
+/**
+ * Keys that apply to some waveform shapes only (`duty` to a square): completion offers them, and
+ * the check accepts them without an `unused-key` warning, under those shapes alone.
+ */
+export const shapesRegistry = z.registry<{ shapes: readonly string[] }>();
+
+/** Marks each named key of an object schema as applying only to the listed shapes. */
+export function appliesTo<S extends Record<string, z.ZodType>>(shape: S, keys: { [K in keyof S]?: readonly string[] }): void {
+  for (const [key, shapes] of Object.entries(keys) as [keyof S & string, readonly string[]][]) shapesRegistry.add(shape[key], { shapes });
+}

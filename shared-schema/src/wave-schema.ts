@@ -13,8 +13,8 @@ import {
 } from './defaults';
 import { MAX_DIVIDER_INTEGER, MAX_FREQUENCY_HZ, MAX_TABLE_LENGTH } from './clock-schema';
 import { MIN_FREQUENCY_HZ } from './quantity';
-import { SHAPES } from './shape';
-import { optional, optionalDerived, quantity, required, whole } from './schema-kit';
+import { SHAPES, type Shape } from './shape';
+import { appliesTo, optional, optionalDerived, quantity, required, whole } from './schema-kit';
 
 /**
  * Harmonics a table holds at most (a `harmonics:` list, a band-limited shape), whatever its corner:
@@ -197,3 +197,13 @@ export const waveSchema = z
 export type WaveFile = z.infer<typeof waveSchema>;
 export type OutputEntry = z.infer<typeof outputSchema>;
 export type GroupEntry = z.infer<typeof groupSchema>;
+
+// Which output keys apply to which shape, once for every face (completion, the check, the reference):
+// the duty is a square's; a band-limited table is the harmonics of a square, triangle or sawtooth;
+// `harmonics` defines the waveform of a sine (server/src/spec/wave-model.ts reads them so).
+appliesTo(outputSchema.shape, {
+  duty: ['square'],
+  'duty-tolerance': ['square'],
+  'band-limit': ['square', 'triangle', 'sawtooth'],
+  harmonics: ['sine'],
+} satisfies { [K in keyof OutputEntry]?: readonly Shape[] });

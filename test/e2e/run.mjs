@@ -12,6 +12,7 @@ import { Checks } from './checks.mjs';
 import { ROOT, TOOLS, extensionHostLogs, prepare, start } from './editor.mjs';
 import { checkPackage } from './package-contents.mjs';
 import { editorChecks } from './scenario.mjs';
+import { typingChecks } from './typing.mjs';
 
 const SHOTS = path.join(ROOT, 'test-results/e2e');
 const started = Date.now();
@@ -65,6 +66,7 @@ try {
   page.setDefaultTimeout(20_000);
   checks.onFail = (_name, index) => page.screenshot({ path: path.join(SHOTS, `failed-${String(index).padStart(2, '0')}.png`) });
   await editorChecks({ checks, page, url: ready ? editor.url : undefined, shots: SHOTS, state });
+  await typingChecks({ checks, page, state });
 } catch (error) {
   await checks.run('harness', () => {
     throw error;

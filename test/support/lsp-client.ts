@@ -133,6 +133,8 @@ export class LspClient {
           hover: { contentFormat: ['markdown', 'plaintext'] },
           codeAction: { codeActionLiteralSupport: { codeActionKind: { valueSet: ['quickfix'] } }, isPreferredSupport: true },
           documentSymbol: { hierarchicalDocumentSymbolSupport: true },
+          // As VS Code's client says it (LSP 3.17 §completion): an item may replace the rest of a word.
+          completion: { completionItem: { insertReplaceSupport: true } },
           inlayHint: {},
         },
       },

@@ -57,6 +57,7 @@ export function startServer(): void {
   let canRefreshLenses = false;
   let canCreateProgress = false;
   let canFollowFolders = false;
+  const completionClient = { insertReplace: false };
 
   connection.onInitialize((params: InitializeParams): InitializeResult => {
     const caps = params.capabilities;
@@ -68,6 +69,7 @@ export function startServer(): void {
     canCreateProgress = !!caps.window?.workDoneProgress;
     publisher.progress = canCreateProgress ? () => connection.window.createWorkDoneProgress() : undefined;
     canFollowFolders = !!caps.workspace?.workspaceFolders;
+    completionClient.insertReplace = !!caps.textDocument?.completion?.completionItem?.insertReplaceSupport;
     folders = (params.workspaceFolders ?? []).map((f: WorkspaceFolder) => uriToPath(f.uri));
     if (folders.length === 0 && params.rootUri) folders = [uriToPath(params.rootUri)];
     docs.workspace.setFolders(folders);
@@ -233,7 +235,7 @@ export function startServer(): void {
       const doc = docs.get(params.textDocument.uri);
       // A position past a line's end or the last line is taken where the text ends, so every
       // item's edit range lies inside the document (the client's position may be stale).
-      return doc ? completions(doc, doc.positionAt(doc.offsetAt(params.position))) : [];
+      return doc ? completions(doc, doc.positionAt(doc.offsetAt(params.position)), params.context, completionClient) : [];
     }),
   );
 

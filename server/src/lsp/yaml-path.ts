@@ -69,12 +69,15 @@ export function parentPathAt(text: string, line: number, character: number): str
   return path;
 }
 
-/** Keys already present in the mapping the cursor's line belongs to (so completion skips them). */
-export function siblingKeys(text: string, line: number, character: number): Set<string> {
+/**
+ * Keys already present in the mapping the cursor's line belongs to (so completion skips them),
+ * each with its value as written on its line ('' for a nested mapping), comment and quotes left out.
+ */
+export function siblingKeys(text: string, line: number, character: number): Map<string, string> {
   const lines = linesOf(text);
   const current = lines[line] ?? '';
   const indent = current.trim() === '' ? character : indentOf(current);
-  const keys = new Set<string>();
+  const keys = new Map<string, string>();
   const scan = (from: number, step: number): void => {
     for (let i = Math.min(from, lines.length - 1); i >= 0 && i < lines.length; i += step) {
       const l = lines[i];
@@ -82,8 +85,8 @@ export function siblingKeys(text: string, line: number, character: number): Set<
       const own = indentOf(l);
       if (own < indent) return;
       if (own > indent) continue;
-      const m = /^\s*([^\s:#][^:#]*?)\s*:/.exec(l);
-      if (m) keys.add(m[1]);
+      const m = /^\s*([^\s:#][^:#]*?)\s*:(?:\s+([^#]*))?/.exec(l);
+      if (m && !keys.has(m[1])) keys.set(m[1], (m[2] ?? '').trim().replace(/^(['"])(.*)\1$/, '$2'));
     }
   };
   scan(line - 1, -1);

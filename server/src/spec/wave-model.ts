@@ -14,6 +14,7 @@ import {
   DEFAULT_TOLERANCE,
   NYQUIST_SAMPLES_PER_CYCLE,
 } from '../../../shared-schema/src/defaults';
+import { shapeLimitedKeys } from '../../../shared-schema/src/keys';
 import { parseQuantity, toleranceHz } from '../../../shared-schema/src/quantity';
 import { formatHz, formatVolts } from '../../../shared-schema/src/quantity-format';
 import { type Rational, add, cmp, div, floor, fromNumber, isInteger, mul, rat, sub, toDecimal, toNumber } from '../../../shared-schema/src/rational';
@@ -59,6 +60,10 @@ function rangesOf(doc: Document.Parsed, lines: LineIndex, name: string): Record<
   }
   return ranges;
 }
+
+/** "square waves", "square, triangle and sawtooth waves". */
+const shapeWords = (shapes: readonly string[]): string =>
+  `${shapes.length > 1 ? `${shapes.slice(0, -1).join(', ')} and ${shapes[shapes.length - 1]}` : shapes[0]} waves`;
 
 /** A documented default, parsed by the same code as a value the engineer wrote. */
 function parseDefault(kind: 'tolerance' | 'duty', text: string) {
@@ -113,10 +118,10 @@ export function buildOutput(
     push('nyquist', at('min-samples-per-cycle'), `A sine needs more than 2 samples per cycle (Nyquist): raise min-samples-per-cycle above 2 (8 is the default).`);
   }
 
-  for (const key of ['duty', 'duty-tolerance'] as const) {
-    if (entry[key] !== undefined && shape !== 'square') {
-      push('unused-key', keyRange(doc, lines, ['outputs', name, key]) ?? at(key), `${key} applies to square waves only: remove it from this ${shape}.`);
-    }
+  // Keys the schema gives to other shapes (appliesTo); `harmonics` is named below, with what to write instead.
+  for (const [key, shapes] of shapeLimitedKeys()) {
+    if (key === 'harmonics' || shapes.includes(shape) || entry[key as keyof OutputEntry] === undefined) continue;
+    push('unused-key', keyRange(doc, lines, ['outputs', name, key]) ?? at(key), `${key} applies to ${shapeWords(shapes)} only: remove it from this ${shape}.`);
   }
   const dutyExact = (get('duty') ?? parseDefault('duty', DEFAULT_DUTY)).value;
   const duty = toNumber(dutyExact);
