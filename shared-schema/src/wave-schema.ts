@@ -198,12 +198,13 @@ export type WaveFile = z.infer<typeof waveSchema>;
 export type OutputEntry = z.infer<typeof outputSchema>;
 export type GroupEntry = z.infer<typeof groupSchema>;
 
-// Which output keys apply to which shape, once for every face (completion, the check, the reference):
-// the duty is a square's; a band-limited table is the harmonics of a square, triangle or sawtooth;
-// `harmonics` defines the waveform of a sine (server/src/spec/wave-model.ts reads them so).
+// Which output keys apply to which shape, once for every face (completion, the check): the duty is
+// a square's; a band-limited table is the harmonics of a square, triangle or sawtooth; `harmonics`
+// and `sample-file` define the waveform of a sine (server/src/spec/wave-model.ts, custom-model.ts).
 appliesTo(outputSchema.shape, {
   duty: ['square'],
   'duty-tolerance': ['square'],
   'band-limit': ['square', 'triangle', 'sawtooth'],
   harmonics: ['sine'],
+  'sample-file': ['sine'],
 } satisfies { [K in keyof OutputEntry]?: readonly Shape[] });

@@ -43,12 +43,13 @@ const labels = (items: Item[]) => items.map((i) => i.label);
 
 // Which keys apply to which shape, derived from the model (server/src/spec/wave-model.ts): the duty
 // is read for a square only, a band-limited table is built for a square, triangle or sawtooth, and
-// `harmonics` defines a sine's table.
+// `harmonics` or `sample-file` defines a sine's table (custom-model.ts).
 const ONLY: Record<string, string[]> = {
   duty: ['square'],
   'duty-tolerance': ['square'],
   'band-limit': ['square', 'triangle', 'sawtooth'],
   harmonics: ['sine'],
+  'sample-file': ['sine'],
 };
 
 describe('completion while typing', () => {
@@ -64,7 +65,7 @@ describe('completion while typing', () => {
   it('offers under each shape only the keys that apply to it', async () => {
     let cases = 0;
     for (const shape of ['sine', 'square', 'triangle', 'sawtooth']) {
-      for (const typed of ['', 'du', 'ha', 'ba']) {
+      for (const typed of ['', 'du', 'ha', 'ba', 'sa']) {
         const { items } = await complete(output(shape, typed), 'lf', { triggerKind: 1 });
         for (const [key, shapes] of Object.entries(ONLY)) {
           expect(labels(items).includes(key), `${key} under a ${shape} after "${typed}"`).toBe(shapes.includes(shape));
@@ -74,7 +75,7 @@ describe('completion while typing', () => {
         cases++;
       }
     }
-    expect(cases).toBe(16);
+    expect(cases).toBe(20);
     // No shape written yet (or one the schema does not know): every key, the shape-bound ones too.
     for (const shape of ['', 'sinus']) {
       const { items } = await complete(['clock: ./lab.clock.yaml', 'outputs:', '  tone:', ...(shape ? [`    shape: ${shape}`] : []), '    du|', '']);

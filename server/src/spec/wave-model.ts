@@ -118,9 +118,10 @@ export function buildOutput(
     push('nyquist', at('min-samples-per-cycle'), `A sine needs more than 2 samples per cycle (Nyquist): raise min-samples-per-cycle above 2 (8 is the default).`);
   }
 
-  // Keys the schema gives to other shapes (appliesTo); `harmonics` is named below, with what to write instead.
+  // Keys the schema gives to other shapes (appliesTo); the keys that define a sine's own waveform
+  // are named in custom-model.ts, with what to write instead.
   for (const [key, shapes] of shapeLimitedKeys()) {
-    if (key === 'harmonics' || shapes.includes(shape) || entry[key as keyof OutputEntry] === undefined) continue;
+    if (key === 'harmonics' || key === 'sample-file' || shapes.includes(shape) || entry[key as keyof OutputEntry] === undefined) continue;
     push('unused-key', keyRange(doc, lines, ['outputs', name, key]) ?? at(key), `${key} applies to ${shapeWords(shapes)} only: remove it from this ${shape}.`);
   }
   const dutyExact = (get('duty') ?? parseDefault('duty', DEFAULT_DUTY)).value;

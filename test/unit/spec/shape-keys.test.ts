@@ -1,13 +1,15 @@
 // The keys that apply to some shapes only are named once, in the schema (appliesTo in
 // shared-schema/src/wave-schema.ts); completion reads them through childKeys and the check warns
 // with `unused-key` on a key the output's shape does not read. Which key a shape reads is derived
-// from the model (server/src/spec/wave-model.ts): the duty is a square's, a band-limited table is
-// the harmonic series of a square, triangle or sawtooth, and `harmonics` defines a sine's table.
+// from the model (server/src/spec/wave-model.ts, custom-model.ts): the duty is a square's, a
+// band-limited table is the harmonic series of a square, triangle or sawtooth, and `harmonics` or
+// `sample-file` defines a sine's table.
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { childKeys, lookupKey, shapeLimitedKeys } from '../../../shared-schema/src/keys';
 import { SHAPES } from '../../../shared-schema/src/shape';
 import { analyze } from '../../../server/src/spec/analyze';
+import type { SpecHost } from '../../../server/src/spec/types';
 import { FIXTURES, diskHost } from './fixture-host';
 
 const VALUES: Record<string, string> = {
@@ -15,15 +17,20 @@ const VALUES: Record<string, string> = {
   'duty-tolerance': '1 %',
   'band-limit': 'nyquist',
   harmonics: '[{ order: 1, amplitude: 1 }, { order: 3, amplitude: 0.2 }]',
+  'sample-file': './cycle.csv',
 };
 
+// One cycle of a triangle-like wave in four values (its wrap, -1 → 0, is no larger than its steps).
+const host: SpecHost = { readFile: (p) => (p.endsWith('cycle.csv') ? '0\n1\n0\n-1\n' : diskHost.readFile(p)) };
+
 describe('keys that apply to some shapes only', () => {
-  it('are the duty, the band limit and the harmonics, with the shapes the model reads them for', () => {
+  it('are the duty, the band limit, the harmonics and the sample file, with the shapes the model reads them for', () => {
     expect(Object.fromEntries(shapeLimitedKeys())).toStrictEqual({
       duty: ['square'],
       'duty-tolerance': ['square'],
       'band-limit': ['square', 'triangle', 'sawtooth'],
       harmonics: ['sine'],
+      'sample-file': ['sine'],
     });
     // The reference text says the same as the registry.
     expect(lookupKey('wave', ['outputs', 'x', 'duty'])!.description).toMatch(/^Square waves only/);
@@ -47,7 +54,7 @@ describe('keys that apply to some shapes only', () => {
     for (const [key, shapes] of shapeLimitedKeys()) {
       for (const shape of SHAPES) {
         const text = `clock: ./rig.clock.yaml\noutputs:\n  tone:\n    shape: ${shape}\n    frequency: 1 kHz\n    ${key}: ${VALUES[key]}\n`;
-        const a = analyze(file, text, diskHost);
+        const a = analyze(file, text, host);
         const unused = a.diagnostics.filter((d) => d.code === 'unused-key' && d.range.start.line === 5);
         expect(unused.length, `${key} on a ${shape}: ${unused.map((d) => d.message).join('; ')}`).toBe(shapes.includes(shape) ? 0 : 1);
         if (!shapes.includes(shape)) expect(unused[0].severity).toBe('warning');
@@ -55,6 +62,6 @@ describe('keys that apply to some shapes only', () => {
         cases++;
       }
     }
-    expect(cases).toBe(16);
+    expect(cases).toBe(20);
   });
 });
