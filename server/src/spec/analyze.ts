@@ -127,12 +127,15 @@ function* splitReading(analysis: Analysis, steps: WaveSteps): Generator<Progress
 function* analyzeWaveWhole(analysis: Analysis, host: SpecHost): Generator<Progress, void> {
   // A large file's parse and its schema and quantity checks each take a while: other messages
   // are let in between them (the editor's requests answer from the analysis so far).
+  // The tree and the findings so far are set before each pause, so a request meanwhile reads them
+  // (and never parses the text again for a cursor).
   const parsed = readSource(analysis.text, WAVE_OUTPUTS);
+  setSyntax(analysis, documentTree(parsed.tree, analysis.text));
+  analysis.diagnostics = [...parsed.diagnostics];
   yield { planned: 0, total: 0 };
   const { src, diagnostics, quantities } = readParsed('wave', parsed);
-  yield { planned: 0, total: 0 };
   analysis.diagnostics = diagnostics;
-  setSyntax(analysis, documentTree(src.tree, analysis.text));
+  yield { planned: 0, total: 0 };
   const doc = src.doc;
   if (!doc || !quantities) return;
   const data = (src.data ?? {}) as Partial<WaveFile>;
