@@ -1,6 +1,6 @@
 // A sample file's change on disk re-checks the wave specs that read it: the server asks the client
-// to watch the file once an analysis has read it, and a reported change refreshes the diagnostics
-// of the open spec and of a closed one.
+// to watch the file once an analysis has read it (or the startup scan found it named), and a
+// reported change refreshes the diagnostics of the open spec and of closed ones.
 
 import * as fs from 'node:fs';
 import * as path from 'node:path';
@@ -16,6 +16,9 @@ const BROKEN = GOOD.replace(/\n([^\n]*)\n([^\n]*)\n/, '\n$1\nsix\n');
 const s = serverOnScratch({}, (dir) => {
   fs.writeFileSync(path.join(dir, 'shaped.wave.yaml'), SPEC);
   fs.writeFileSync(path.join(dir, 'cycle.csv'), GOOD);
+  // A spec that stays closed and is never analysed before its sample file changes.
+  fs.writeFileSync(path.join(dir, 'quiet.wave.yaml'), SPEC.replace('./cycle.csv', './quiet.csv'));
+  fs.writeFileSync(path.join(dir, 'quiet.csv'), GOOD);
 });
 
 const codesOf = (p: { diagnostics: { code?: string | number }[] }) => p.diagnostics.map((d) => String(d.code));
@@ -62,6 +65,18 @@ describe('sample file dependencies', () => {
     const csv = path.join(ws.dir, 'cycle.csv');
     // Closing published the disk analysis of the spec (so the server knows what it reads).
     await client.diagnosticsFor(uriOf(spec), (p) => p.version === undefined && p.diagnostics.length === 0);
+    const mark = client.published.length;
+    fs.writeFileSync(csv, BROKEN);
+    client.notify('workspace/didChangeWatchedFiles', { changes: [{ uri: uriOf(csv), type: 2 }] });
+    const closed = await client.diagnosticsFor(uriOf(spec), (p) => codesOf(p).includes('sample-file-invalid'), mark);
+    expect(closed.version).toBeUndefined();
+  });
+
+  it('re-checks a closed spec never analysed: the startup scan found its sample-file', async () => {
+    const { client, ws } = s;
+    const spec = path.join(ws.dir, 'quiet.wave.yaml');
+    const csv = path.join(ws.dir, 'quiet.csv');
+    await client.waitFor(() => (JSON.stringify(client.registrations).includes('quiet.csv') ? true : undefined), 'watcher of the scanned sample file');
     const mark = client.published.length;
     fs.writeFileSync(csv, BROKEN);
     client.notify('workspace/didChangeWatchedFiles', { changes: [{ uri: uriOf(csv), type: 2 }] });

@@ -29,9 +29,13 @@ export class Dependencies {
   record(analysis: Analysis): void {
     if (analysis.kind !== 'wave') return;
     this.recordClock(analysis.path, analysis.clockPath);
-    const samples = (analysis.sampleFiles ?? []).map((f) => f.path);
-    if (samples.length > 0) this.samplesOf.set(analysis.path, samples);
-    else this.samplesOf.delete(analysis.path);
+    this.recordSamples(analysis.path, (analysis.sampleFiles ?? []).map((f) => f.path));
+  }
+
+  /** The sample files a wave spec reads (from sampleReferences when the spec was not analysed). */
+  recordSamples(wave: string, samples: string[]): void {
+    if (samples.length > 0) this.samplesOf.set(wave, samples);
+    else this.samplesOf.delete(wave);
   }
 
   /** True when an analysed wave spec reads `path` as a sample file. */

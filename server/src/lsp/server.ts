@@ -15,7 +15,7 @@ import {
   type WorkspaceFolder,
 } from 'vscode-languageserver/node';
 import { analyze, analyzeInSteps } from '../spec/analyze';
-import { clockReference } from '../spec/clock-reference';
+import { clockReference, sampleReferences } from '../spec/clock-reference';
 import { syntaxOf } from '../spec/syntax';
 import { SyntaxTrees } from './yaml-path';
 import { codeActions } from './code-actions';
@@ -103,16 +103,20 @@ export function startServer(): void {
           }),
         );
       }
-      // Learn which wave specs read which clock file, so a clock edit reaches closed specs too:
-      // only their `clock:` lines are read, nothing is planned. A small workspace is read before
+      // Learn which wave specs read which clock file and sample files, so a change reaches closed
+      // specs too: only their `clock:` lines (and, in a spec that has the key, its `sample-file:`
+      // values) are read, nothing is planned. A small workspace is read before
       // any later message is handled; a large one in slices.
       const waves = findSpecFiles(folders).filter((p) => p.endsWith('.wave.yaml'));
       for (const [index, path] of waves.entries()) {
         if (index > 0 && index % SCAN_SLICE === 0) await yieldToEvents();
         if (docs.isOpen(path)) continue;
         const text = docs.hostFor(path).readFile(path);
-        if (text !== undefined) deps.recordClock(path, clockReference(path, text));
+        if (text === undefined) continue;
+        deps.recordClock(path, clockReference(path, text));
+        deps.recordSamples(path, sampleReferences(path, text));
       }
+      sampleWatch.watch(deps.sampleFiles());
       if (canWatchFiles) {
         await connection.client.register(DidChangeWatchedFilesNotification.type, {
           watchers: [{ globPattern: '**/*.{wave,clock}.yaml' }],
