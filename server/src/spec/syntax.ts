@@ -7,6 +7,7 @@
 import { type Document, type Node, isMap, isPair, isScalar, isSeq, parseDocument } from 'yaml';
 import { forYaml } from './line-breaks';
 import { Memo } from './memo';
+import { MAX_FILE_CHARS } from './source';
 import type { Analysis } from './types';
 
 export type PathPart = string | number;
@@ -134,7 +135,9 @@ export function setSyntax(analysis: Analysis, tree: SyntaxTree): void {
 export function syntaxOf(analysis: Analysis): SyntaxTree {
   let tree = trees.get(analysis);
   if (!tree) {
-    tree = documentTree(parseForCursor(analysis.text), analysis.text);
+    // A text over the read limit was never parsed (file-too-large) and is not parsed here either:
+    // every cursor request after every edit of a 10 MB buffer paid a parse of it, seconds each.
+    tree = documentTree(analysis.text.length > MAX_FILE_CHARS ? null : parseForCursor(analysis.text), analysis.text);
     trees.set(analysis, tree);
   }
   return tree;
