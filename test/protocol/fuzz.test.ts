@@ -25,14 +25,15 @@ const budgetMs = config.long ? Math.max(600_000, config.cases * 2_000) : 300_000
 let checkerWs: Workspace;
 let serverWs: Workspace;
 let client: LspClient;
+// FUZZ_PROF=<folder>: the server writes a V8 CPU profile there at exit, to see where a slow request
+// went; FUZZ_NODE_ARGS: other flags for its node (`--prof`, whose log survives a server killed as hung).
+const nodeArgs = [...(process.env.FUZZ_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.FUZZ_PROF}`] : []), ...(process.env.FUZZ_NODE_ARGS ?? '').split(' ').filter(Boolean)];
 
 beforeAll(async () => {
   ensureBuilt();
   checkerWs = fuzzWorkspace('fuzz-check');
   serverWs = fuzzWorkspace('fuzz-lsp');
-  // FUZZ_PROF=<folder>: the server writes a V8 CPU profile there, to see where a slow request went.
-  const profile = process.env.FUZZ_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.FUZZ_PROF}`] : [];
-  client = await LspClient.start({ nodeArgs: profile, folders: [serverWs.dir] });
+  client = await LspClient.start({ nodeArgs, folders: [serverWs.dir] });
   tally.rss.start = rssKib(client.process.pid);
 });
 
@@ -80,7 +81,7 @@ describe('fuzz', () => {
         // A hung or dead server is replaced, so one bug does not hide the rest of the run.
         client.process.kill('SIGKILL');
         await client.stop();
-        client = await LspClient.start({ folders: [serverWs.dir] });
+        client = await LspClient.start({ folders: [serverWs.dir], nodeArgs });
         tally.count('server restarts');
       }
       if (config.long && n % 500 === 0) console.log(`fuzz: session of case ${n}, ${tally.failures.length} failures so far, ${((performance.now() - started) / 1000).toFixed(0)} s`);

@@ -36,7 +36,7 @@ export function fuzzConfig(): FuzzConfig {
   const only = process.env.FUZZ_ONLY === undefined || process.env.FUZZ_ONLY === '' ? undefined : intFrom('FUZZ_ONLY', 0);
   return {
     seed: intFrom('FUZZ_SEED', 20261203),
-    cases: intFrom('FUZZ_CASES', long ? 4000 : 400),
+    cases: intFrom('FUZZ_CASES', long ? 4000 : 1000),
     sessionEvery: intFrom('FUZZ_SESSION_EVERY', 10),
     edits: intFrom('FUZZ_EDITS', long ? 24 : 12),
     bigEvery: intFrom('FUZZ_BIG_EVERY', 200),
