@@ -90,16 +90,16 @@ function fileHeader(file: CheckedFile, relative: (abs: string) => string): strin
   return `${file.path}  wave spec — ${parts.join(', ')}`;
 }
 
+const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
+
 /** "0 outputs" alone would read as an empty spec when a spec's clock file kept its outputs from being planned. */
 function outputsPart(t: Tally, files: readonly CheckedFile[]): string {
-  const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
   const unplanned = files.filter((f) => f.analysis.kind === 'wave' && clockProblem(f.analysis) !== null).length;
   const planned = plural(t.outputs, 'output');
   return unplanned === 0 ? planned : `${planned} planned (${plural(unplanned, 'wave spec')} not planned: see its clock file)`;
 }
 
 export function summaryLine(t: Tally, files: readonly CheckedFile[]): string {
-  const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
   const verdict = t.errors > 0 ? 'FAILED' : 'passed';
   return `waveplan check ${verdict}: ${plural(t.files, 'file')}, ${outputsPart(t, files)}, ${plural(t.errors, 'error')}, ${plural(t.warnings, 'warning')}`;
 }

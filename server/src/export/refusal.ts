@@ -4,6 +4,7 @@
 // the editor's export command and by the code lens that offers it, so the lens never offers an
 // export the command would refuse.
 
+import { sortedDiagnostics } from '../cli/checked';
 import type { Analysis, SpecDiagnostic } from '../spec/types';
 import { sampleType } from './c-export';
 import { outputIdentifiers } from './identifiers';
@@ -41,22 +42,17 @@ export function exportProblems(spec: ExportSubject, wantC: boolean): { ids: Expo
 }
 
 /** Why an export without --force writes nothing, or null when it may write. */
-export type ExportRefusal =
-  | { kind: 'findings'; findings: SpecDiagnostic[]; ids: null }
-  | { kind: 'no-hardware'; findings: []; ids: null };
+export type ExportRefusal = { kind: 'findings'; findings: SpecDiagnostic[] } | { kind: 'no-hardware'; findings: [] };
 
 export type ExportDecision = ExportRefusal | { kind: 'ready'; ids: NonNullable<ExportedSpec['ids']> };
 
 /** The C export's decision for one spec, as the editor (which has no --force) takes it. */
 export function exportDecision(spec: ExportSubject): ExportDecision {
   const { ids, problems } = exportProblems(spec, true);
-  // In text order, so the first named is the first the reader meets.
-  const findings = spec.analysis.diagnostics
-    .filter((d) => d.severity === 'error')
-    .concat(problems)
-    .sort((a, b) => a.range.start.line - b.range.start.line || a.range.start.character - b.range.start.character);
-  if (findings.length > 0) return { kind: 'findings', findings, ids: null };
-  if (!spec.analysis.hardware || ids === null) return { kind: 'no-hardware', findings: [], ids: null };
+  // In reading order (the checker's), so the first named is the first the reader meets.
+  const findings = sortedDiagnostics(spec.analysis.diagnostics.filter((d) => d.severity === 'error').concat(problems));
+  if (findings.length > 0) return { kind: 'findings', findings };
+  if (!spec.analysis.hardware || ids === null) return { kind: 'no-hardware', findings: [] };
   return { kind: 'ready', ids };
 }
 

@@ -14,6 +14,7 @@ import type { Analysis, OutputAnalysis } from '../spec/types';
 import { fromNumber, toNumber } from '../../../shared-schema/src/rational';
 import { formatHz } from '../cli/units';
 import { clockValueRange } from './clock-edits';
+import type { DiagnosticData } from './diagnostics';
 import { pathToUri } from './documents';
 
 const E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
@@ -75,7 +76,7 @@ export function couplingActions(analysis: Analysis, d: Diagnostic, readFile: (pa
   const edited = clockText.slice(0, range.offsets[0]) + newText + clockText.slice(range.offsets[1]);
   // The preview: this spec against the edited clock file, read as the checker reads it.
   const after = analyze(analysis.path, analysis.text, { readFile: (p) => (p === clockPath ? edited : readFile(p)) });
-  const name = after.outputs.find((o) => o.name === (d.data as { output?: string } | undefined)?.output) ?? after.outputs[0];
+  const name = after.outputs.find((o) => o.name === (d.data as DiagnosticData | undefined)?.output) ?? after.outputs[0];
   const loss = name ? couplingLoss(after, name) : null;
   if (count(after) >= count(analysis) || loss === null || !after.hardware?.analog?.couplingCapacitanceF) return [];
   const corner = highPassCornerHz(r, after.hardware.analog.couplingCapacitanceF);
